@@ -1,0 +1,162 @@
+"""The command line: ``tablegen value|build|verify``.
+
+``main(argv) -> int`` is the whole interface; tests call it directly.  This is
+the only place where tablegen's errors become stderr text and exit codes:
+user errors print one line and exit 2, never a traceback.
+
+The ``value`` path imports only the engine (no sympy, no jinja2) so that a
+one-value lookup starts about as fast as the interpreter itself.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+
+from . import __version__
+from .errors import TablegenError
+
+__all__ = ["main"]
+
+EXIT_OK = 0
+EXIT_FAILED = 1
+EXIT_USAGE = 2
+
+_VALUE_KINDS = ("cg", "3j", "6j", "w", "9j")
+_VALUE_FLAGS_WITH_ARG = ("--digits", "--max-j")
+_VALUE_FLAGS = ("--latex", "--json", "-h", "--help")
+
+
+class _UsageError(Exception):
+    """A command-line usage mistake, reported in one line."""
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse, but usage errors become one line (no usage dump) and exit 2."""
+
+    def error(self, message: str):  # type: ignore[override]
+        raise _UsageError(f"{self.prog}: {message}")
+
+
+def _build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="tablegen",
+        description="Exact Clebsch-Gordan, 3j, 6j, Racah W and 9j values and reference tables "
+        "(Condon-Shortley phase).",
+    )
+    parser.add_argument("--version", action="version", version=f"tablegen {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+
+    value = sub.add_parser(
+        "value",
+        help="print one exact value",
+        description="Print one coefficient exactly and as a decimal. KIND is cg, 3j, 6j, w or 9j; "
+        "the arguments follow the order of the symbol: cg j1 m1 j2 m2 J M; 3j j1 j2 j3 m1 m2 m3; "
+        "6j j1 j2 j3 j4 j5 j6; w a b c d e f; 9j j11 j12 j13 j21 j22 j23 j31 j32 j33. "
+        "Quantum numbers may be written 3/2, 1.5, -1/2 or 2.",
+    )
+    value.add_argument("kind", choices=_VALUE_KINDS, metavar="KIND")
+    value.add_argument("args", nargs="*", metavar="ARG")
+    value.add_argument("--digits", type=int, default=15, help="significant digits of the decimal (default 15)")
+    value.add_argument("--latex", action="store_true", help="also print the LaTeX (both root styles)")
+    value.add_argument("--json", action="store_true", help="print one JSON object instead of text")
+    value.add_argument("--max-j", type=int, default=None, help="raise the size limit on j")
+    return parser
+
+
+def _reorder_value_argv(argv: list[str]) -> list[str]:
+    """Put options first and quantum numbers after '--', so '-1/2' is not an option."""
+    if not argv or argv[0] != "value":
+        return argv
+    options: list[str] = []
+    positionals: list[str] = []
+    tokens = iter(argv[1:])
+    for token in tokens:
+        name = token.split("=", 1)[0]
+        if name in _VALUE_FLAGS_WITH_ARG:
+            options.append(token)
+            if "=" not in token:
+                options.append(next(tokens, ""))
+        elif token in _VALUE_FLAGS or (token.startswith("--") and token != "--"):
+            options.append(token)
+        elif token != "--":
+            positionals.append(token)
+    return ["value", *options, "--", *positionals]
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Run the command line; return the exit status."""
+    argv = list(sys.argv[1:] if argv is None else argv)
+    try:
+        parser = _build_parser()
+        ns = parser.parse_args(_reorder_value_argv(argv))
+        if ns.command is None:
+            parser.print_help()
+            return EXIT_USAGE
+        if ns.command == "value":
+            return _run_value(ns)
+        return ns.run(ns)
+    except _UsageError as exc:
+        print(str(exc), file=sys.stderr)
+        return EXIT_USAGE
+    except TablegenError as exc:
+        print(f"tablegen: error: {exc}", file=sys.stderr)
+        return EXIT_USAGE
+    except KeyboardInterrupt:
+        print("tablegen: interrupted", file=sys.stderr)
+        return 130
+
+
+def _run_value(ns: argparse.Namespace) -> int:
+    from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments, why_zero_doubled
+    from .decimals import MAX_DIGITS
+    from .notation import symbol_text
+
+    names = ARGUMENT_NAMES[ns.kind]
+    if len(ns.args) != len(names):
+        raise _UsageError(
+            f"tablegen value {ns.kind}: needs {len(names)} arguments ({' '.join(names)}), got {len(ns.args)}"
+        )
+    if not 1 <= ns.digits <= MAX_DIGITS:
+        raise _UsageError(f"tablegen value: argument --digits = {ns.digits}: must be from 1 to {MAX_DIGITS}")
+    if ns.max_j is not None and ns.max_j < 0:
+        raise _UsageError(f"tablegen value: argument --max-j = {ns.max_j}: must be >= 0")
+    t = parse_arguments(ns.kind, ns.args, ns.max_j)
+    value = DOUBLED[ns.kind](*t)
+    zero_rule = why_zero_doubled(ns.kind, t) if not value else None
+    symbol = symbol_text(ns.kind, t)
+    exact = str(value)
+    decimal = value.decimal(ns.digits)
+    if ns.json:
+        record = {
+            "kind": ns.kind,
+            "arguments": dict(zip(names, (_half(x) for x in t))),
+            "symbol": symbol,
+            "exact": exact,
+            "square": str(value.squared()),
+            "decimal": decimal,
+            "digits": ns.digits,
+            "zero_rule": zero_rule,
+            "convention": "Condon-Shortley",
+            "version": __version__,
+        }
+        if ns.latex:
+            record["latex"] = {"root": value.latex("root"), "rational": value.latex("rational")}
+        print(json.dumps(record, ensure_ascii=False))
+        return EXIT_OK
+    print(symbol)
+    print(f"  exact    {exact}")
+    print(f"  decimal  {decimal}")
+    if zero_rule:
+        print(f"  zero by  {zero_rule}")
+    if ns.latex:
+        print(f"  latex    {value.latex('root')}")
+        print(f"  latex    {value.latex('rational')}  (rationalised)")
+    return EXIT_OK
+
+
+def _half(t: int) -> str:
+    from .spins import half_text
+
+    return half_text(t)

@@ -1,0 +1,67 @@
+"""The exceptions tablegen raises on purpose.
+
+Every error that a user can cause derives from :class:`TablegenError` and
+renders as one line that names the argument (or recipe key, or path), the
+offending value and the rule it breaks.  Only the command line turns these
+into stderr text and an exit status; the library just raises them.
+"""
+
+from __future__ import annotations
+
+__all__ = [
+    "TablegenError",
+    "QuantumNumberError",
+    "RecipeError",
+    "OutputError",
+    "TooLargeError",
+]
+
+
+class TablegenError(Exception):
+    """Base class for every error a user can trigger."""
+
+
+class QuantumNumberError(TablegenError, ValueError):
+    """A j or m that cannot be a quantum number (not a selection-rule zero)."""
+
+    def __init__(self, argument: str, value: object, rule: str) -> None:
+        self.argument = argument
+        self.value = value
+        self.rule = rule
+        super().__init__(f"argument {argument} = {_show(value)}: {rule}")
+
+
+class RecipeError(TablegenError, ValueError):
+    """A recipe key with a wrong value, type or name."""
+
+    def __init__(self, key: str, value: object, rule: str) -> None:
+        self.key = key
+        self.value = value
+        self.rule = rule
+        super().__init__(f"recipe key {key} = {_show(value)}: {rule}")
+
+
+class TooLargeError(TablegenError, ValueError):
+    """A request whose estimated size exceeds a safety limit."""
+
+    def __init__(self, what: str, estimate: str, rule: str) -> None:
+        self.what = what
+        self.estimate = estimate
+        self.rule = rule
+        super().__init__(f"{what} ({estimate}): {rule}")
+
+
+class OutputError(TablegenError, OSError):
+    """An output or input folder that cannot be used as asked."""
+
+    def __init__(self, path: object, rule: str) -> None:
+        self.path = path
+        self.rule = rule
+        super().__init__(f"folder {str(path)!r}: {rule}")
+
+
+def _show(value: object) -> str:
+    """A short, single-line rendering of an offending value."""
+    text = repr(value) if isinstance(value, str) else str(value)
+    text = text.replace("\n", "\\n")
+    return text if len(text) <= 60 else text[:57] + "..."

@@ -1,0 +1,205 @@
+"""Integer kernels under the coefficient formulas: no floats, no dependencies.
+
+Everything here works on Python ints.  The factorial table and the prime
+sieve are the only caches; both grow on demand and are bounded by the largest
+argument ever asked for, which the quantum-number size limit keeps finite
+(see :data:`tablegen.spins.DEFAULT_MAX_J`): a table of n! for n <= N costs
+about N**2 * 0.6 bytes (N = 4002 for j = 1000: ~10 MB).
+"""
+
+from __future__ import annotations
+
+from math import gcd, isqrt
+
+__all__ = [
+    "factorial",
+    "primes_upto",
+    "factorial_exponent",
+    "reduce_square",
+    "prime_exponents",
+    "split_square",
+]
+
+_FACTORIALS: list[int] = [1]
+_PRIMES: list[int] = []
+_SIEVE_LIMIT = 1
+
+# Above this factorial argument, reducing p/q through prime exponents is faster
+# than one gcd of the multiplied-out integers (measured on CPython 3.11).
+_PRIME_PATH_THRESHOLD = 400
+
+
+def factorial(n: int) -> int:
+    """n! from a growing table (n >= 0, already checked by the caller)."""
+    table = _FACTORIALS
+    if n >= len(table):
+        value = table[-1]
+        for i in range(len(table), n + 1):
+            value *= i
+            table.append(value)
+    return table[n]
+
+
+def primes_upto(n: int) -> list[int]:
+    """All primes <= n, from a sieve that is extended when needed."""
+    global _PRIMES, _SIEVE_LIMIT
+    if n > _SIEVE_LIMIT:
+        limit = max(n, 2 * _SIEVE_LIMIT)
+        flags = bytearray([1]) * (limit + 1)
+        flags[0:2] = b"\x00\x00"
+        for p in range(2, isqrt(limit) + 1):
+            if flags[p]:
+                flags[p * p :: p] = bytes(len(range(p * p, limit + 1, p)))
+        _PRIMES = [i for i, f in enumerate(flags) if f]
+        _SIEVE_LIMIT = limit
+    if n >= _SIEVE_LIMIT:
+        return _PRIMES
+    # bisect by hand to avoid importing bisect on the startup path
+    lo, hi = 0, len(_PRIMES)
+    while lo < hi:
+        mid = (lo + hi) // 2
+        if _PRIMES[mid] <= n:
+            lo = mid + 1
+        else:
+            hi = mid
+    return _PRIMES[:lo]
+
+
+def factorial_exponent(n: int, p: int) -> int:
+    """Exponent of the prime p in n! (Legendre's formula)."""
+    e = 0
+    while n:
+        n //= p
+        e += n
+    return e
+
+
+def reduce_square(
+    num: int,
+    once_up: list[int],
+    once_down: list[int],
+    twice_up: list[int] = (),
+    twice_down: list[int] = (),
+) -> tuple[int, int]:
+    """Reduce a square of the form below to coprime (p, q).
+
+        (num * prod(twice_up!) / prod(twice_down!))**2 * prod(once_up!) / prod(once_down!)
+
+    The coefficient formulas all end here: the square of a value is the square
+    of an integer Racah sum times a ratio of factorials.  Small cases multiply
+    out and take one gcd; large ones work with prime exponents (Legendre's
+    formula), so that the huge factorials are never multiplied out in full.
+    """
+    top = max(max(once_up, default=0), max(once_down, default=0),
+              max(twice_up, default=0), max(twice_down, default=0))
+    if top <= _PRIME_PATH_THRESHOLD:
+        fact = factorial
+        n = num
+        for k in twice_up:
+            n *= fact(k)
+        p = n * n
+        for k in once_up:
+            p *= fact(k)
+        d = 1
+        for k in twice_down:
+            d *= fact(k)
+        q = d * d
+        for k in once_down:
+            q *= fact(k)
+        g = gcd(p, q)
+        return p // g, q // g
+    num = abs(num)
+    num_pos: list[int] = []
+    den_pos: list[int] = []
+    for prime in primes_upto(top):
+        e = 0
+        for k in once_up:
+            e += factorial_exponent(k, prime)
+        for k in once_down:
+            e -= factorial_exponent(k, prime)
+        for k in twice_up:
+            e += 2 * factorial_exponent(k, prime)
+        for k in twice_down:
+            e -= 2 * factorial_exponent(k, prime)
+        if e < 0 and num % prime == 0:
+            # cancel factors of the Racah sum against the denominator
+            num, k = _strip(num, prime, (1 - e) // 2)
+            e += 2 * k
+        if e > 0:
+            num_pos.append(prime**e)
+        elif e < 0:
+            den_pos.append(prime ** (-e))
+    return num * num * _tree_product(num_pos), _tree_product(den_pos)
+
+
+def _strip(n: int, p: int, cap: int) -> tuple[int, int]:
+    """Divide n by p as often as it goes, at most cap times; galloping chunks."""
+    k = 0
+    chunk = 1
+    while cap > 0:
+        c = min(chunk, cap)
+        q, r = divmod(n, p**c)
+        if r:
+            if c == 1:
+                break
+            chunk = 1
+            continue
+        n, k, cap, chunk = q, k + c, cap - c, chunk * 2
+    return n, k
+
+
+def _tree_product(values: list[int]) -> int:
+    """Product of many ints, pairing similar sizes (faster than a left fold)."""
+    if not values:
+        return 1
+    while len(values) > 1:
+        paired = [values[i] * values[i + 1] for i in range(0, len(values) - 1, 2)]
+        if len(values) % 2:
+            paired.append(values[-1])
+        values = paired
+    return values[0]
+
+
+def prime_exponents(n: int) -> dict[int, int]:
+    """Prime factorisation of n >= 1 as {prime: exponent}, primes ascending.
+
+    Trial division by small primes finds every factor that a factorial ratio
+    can contribute; a large cofactor left over (only possible from the
+    integer Racah sum) is handed to sympy, imported lazily.
+    """
+    if n < 1:
+        raise ValueError(f"prime_exponents needs n >= 1, got {n}")
+    out: dict[int, int] = {}
+    bound = 10_000
+    for p in primes_upto(bound):
+        if p * p > n:
+            break
+        if n % p == 0:
+            e = 0
+            while n % p == 0:
+                n //= p
+                e += 1
+            out[p] = e
+    if n > 1:
+        if n < bound * bound:
+            out[n] = out.get(n, 0) + 1
+        else:
+            from sympy import factorint  # rare: only for large prime cofactors
+
+            for p, e in factorint(n).items():
+                out[int(p)] = out.get(int(p), 0) + int(e)
+    return dict(sorted(out.items()))
+
+
+def split_square(n: int) -> tuple[int, int]:
+    """Write n >= 1 as a**2 * b with b square-free; return (a, b)."""
+    r = isqrt(n)
+    if r * r == n:
+        return r, 1
+    a = b = 1
+    for p, e in prime_exponents(n).items():
+        a *= p ** (e // 2)
+        if e % 2:
+            b *= p
+    return a, b
+

@@ -1,0 +1,163 @@
+"""Symmetry classes of 3j, 6j and 9j symbols, with the signs that relate members.
+
+All functions take doubled arguments (2j, 2m) in the order of the symbol and
+return doubled arguments.  ``*_members(t)`` lists pairs (arguments, sign)
+meaning value(member) = sign * value(t); ``*_canonical(t)`` returns
+(canonical, sign) meaning value(t) = sign * value(canonical).
+
+* 3j, 72 operations (Regge 1958): write the symbol as the square
+      [[-j1+j2+j3, j1-j2+j3, j1+j2-j3], [j1-m1, j2-m2, j3-m3], [j1+m1, j2+m2, j3+m3]];
+  every row and column sums to J = j1+j2+j3.  Permuting rows or columns
+  multiplies the symbol by (-1)**J for an odd permutation; transposing leaves it.
+* 6j, 144 operations (Regge 1959): the symbol depends only on the multiset of
+  its four triad sums and the multiset of its three quadrangle sums, with no
+  phase; the 24 tetrahedral symmetries are a subgroup.
+* 9j, 72 operations: permuting rows or columns multiplies the symbol by
+  (-1)**(sum of all nine j) for an odd permutation; transposing leaves it.
+
+The canonical member of a class is the one with the largest argument tuple.
+Tables list one row per class and caches may key on the canonical form.
+"""
+
+from __future__ import annotations
+
+from itertools import permutations
+
+__all__ = [
+    "threej_members",
+    "threej_canonical",
+    "sixj_members",
+    "sixj_canonical",
+    "ninej_members",
+    "ninej_canonical",
+    "members",
+    "canonical",
+]
+
+def _perm_parity(p: tuple[int, ...]) -> int:
+    inversions = sum(1 for i in range(len(p)) for k in range(i + 1, len(p)) if p[i] > p[k])
+    return inversions & 1
+
+
+_PERMS3 = tuple((p, _perm_parity(p)) for p in permutations(range(3)))
+
+
+# -- 3j -----------------------------------------------------------------------
+def _regge_square(t: tuple[int, ...]) -> tuple[tuple[int, int, int], ...]:
+    tj1, tj2, tj3, tm1, tm2, tm3 = t
+    return (
+        ((tj2 + tj3 - tj1) // 2, (tj1 - tj2 + tj3) // 2, (tj1 + tj2 - tj3) // 2),
+        ((tj1 - tm1) // 2, (tj2 - tm2) // 2, (tj3 - tm3) // 2),
+        ((tj1 + tm1) // 2, (tj2 + tm2) // 2, (tj3 + tm3) // 2),
+    )
+
+
+def _from_regge(r) -> tuple[int, ...]:
+    tj = tuple(r[1][i] + r[2][i] for i in range(3))
+    tm = tuple(r[2][i] - r[1][i] for i in range(3))
+    return tj + tm
+
+
+def threej_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
+    """The distinct symbols equal (up to sign) to an allowed 3j, with their signs.
+
+    The 3j must obey the triangle rule, integer triad sum, m1+m2+m3 = 0 and
+    |m| <= j; outside those the symbol is zero and has no Regge square.
+    """
+    r = _regge_square(t)
+    big_j = sum(r[0])
+    odd_sign = -1 if big_j & 1 else 1
+    seen: dict[tuple[int, ...], int] = {}
+    for rows, rpar in _PERMS3:
+        for cols, cpar in _PERMS3:
+            sq = tuple(tuple(r[rows[a]][cols[b]] for b in range(3)) for a in range(3))
+            sign = odd_sign if (rpar + cpar) & 1 else 1
+            for square in (sq, tuple(zip(*sq))):
+                seen.setdefault(_from_regge(square), sign)
+    return sorted(seen.items(), reverse=True)
+
+
+def threej_canonical(*t: int) -> tuple[tuple[int, ...], int]:
+    """(canonical arguments, sign) with value(t) = sign * value(canonical)."""
+    members = threej_members(*t)
+    canon, canon_sign = members[0]
+    own = dict(members)[tuple(t)]
+    return canon, own * canon_sign
+
+
+# -- 6j -----------------------------------------------------------------------
+def _sixj_sums(t: tuple[int, ...]) -> tuple[tuple[int, ...], tuple[int, ...]]:
+    a, b, c, d, e, f = t
+    al = ((a + b + c) // 2, (a + e + f) // 2, (d + b + f) // 2, (d + e + c) // 2)
+    be = ((a + b + d + e) // 2, (a + c + d + f) // 2, (b + c + e + f) // 2)
+    return al, be
+
+
+def _sixj_from_sums(al, be) -> tuple[int, ...]:
+    """Doubled {a b c; d e f} with triad sums al and quadrangle sums be.
+
+    Inverts a+b+c = al1, a+e+f = al2, d+b+f = al3, d+e+c = al4,
+    a+b+d+e = be1, a+c+d+f = be2, b+c+e+f = be3 (each j = half of two
+    differences be_j - al_i, which are the triangle combinations a+b-c etc.).
+    """
+    a1, a2, a3, a4 = al
+    b1, b2, b3 = be
+    return (
+        (b1 - a4) + (b2 - a3),
+        (b1 - a4) + (b3 - a2),
+        (b2 - a3) + (b3 - a2),
+        (b1 - a1) + (b2 - a2),
+        (b1 - a1) + (b3 - a3),
+        (b2 - a1) + (b3 - a4),
+    )
+
+
+def sixj_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
+    """The distinct symbols equal to an allowed 6j (all with sign +1)."""
+    al, be = _sixj_sums(t)
+    found = {
+        _sixj_from_sums(pa, pb) for pa in set(permutations(al)) for pb in set(permutations(be))
+    }
+    return [(m, 1) for m in sorted(found, reverse=True)]
+
+
+def sixj_canonical(*t: int) -> tuple[tuple[int, ...], int]:
+    """(canonical arguments, +1); equal symbols share the canonical form."""
+    return sixj_members(*t)[0][0], 1
+
+
+# -- 9j -----------------------------------------------------------------------
+def ninej_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
+    """The distinct symbols equal (up to sign) to a 9j, with their signs."""
+    rows = (t[0:3], t[3:6], t[6:9])
+    odd_sign = -1 if (sum(t) // 2) & 1 else 1
+    seen: dict[tuple[int, ...], int] = {}
+    for rp, rpar in _PERMS3:
+        for cp, cpar in _PERMS3:
+            m = tuple(tuple(rows[rp[a]][cp[b]] for b in range(3)) for a in range(3))
+            sign = odd_sign if (rpar + cpar) & 1 else 1
+            for square in (m, tuple(zip(*m))):
+                seen.setdefault(tuple(x for row in square for x in row), sign)
+    return sorted(seen.items(), reverse=True)
+
+
+def ninej_canonical(*t: int) -> tuple[tuple[int, ...], int]:
+    """(canonical arguments, sign) with value(t) = sign * value(canonical)."""
+    members = ninej_members(*t)
+    canon, canon_sign = members[0]
+    return canon, dict(members)[tuple(t)] * canon_sign
+
+
+_MEMBERS = {"3j": threej_members, "6j": sixj_members, "9j": ninej_members}
+_CANONICAL = {"3j": threej_canonical, "6j": sixj_canonical, "9j": ninej_canonical}
+
+
+def members(kind: str, *t: int) -> list[tuple[tuple[int, ...], int]]:
+    """Class members of a symbol of kind "3j", "6j" or "9j" (doubled arguments)."""
+    return _MEMBERS[kind](*t)
+
+
+def canonical(kind: str, *t: int) -> tuple[tuple[int, ...], int]:
+    """Canonical form and relating sign of a symbol of kind "3j", "6j" or "9j"."""
+    return _CANONICAL[kind](*t)
+
