@@ -1,0 +1,106 @@
+"""Compute every value a plan needs, with its text forms, on all cores.
+
+The result is a ValueBook: (family, doubled key) -> Shown.  Shown carries the
+exact value and each text form the renderers print (exact text, signed
+square, decimal, LaTeX in both root styles), so that renderers only format.
+Work is split into fixed chunks in plan order and reassembled in that order,
+so the result does not depend on how many processes ran.
+"""
+
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass
+from typing import Callable, Iterator
+
+from .coefficients import DOUBLED
+from .plan import SitePlan
+from .surd import Surd
+
+__all__ = ["Shown", "ValueBook", "compute_values", "wanted_keys", "show"]
+
+#: Below this many values one process is faster than starting a pool.
+PARALLEL_THRESHOLD = 40_000
+CHUNK = 4_000
+
+
+@dataclass(frozen=True)
+class Shown:
+    """A value and the text forms shown for it."""
+
+    value: Surd
+    exact: str
+    square: str
+    decimal: str
+    tex: str  # in the recipe's LaTeX style
+    tex_other: str  # in the other style
+
+    @property
+    def tex_abs(self) -> str:
+        """LaTeX of |value| in the recipe style (for ket expansions: sign written apart)."""
+        return self.tex[1:] if self.tex.startswith("-") else self.tex
+
+
+ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
+
+
+def show(value: Surd, digits: int, style: str) -> Shown:
+    """All text forms of one value."""
+    other = "rational" if style == "root" else "root"
+    return Shown(
+        value=value,
+        exact=str(value),
+        square=str(value.squared()),
+        decimal=value.decimal(digits),
+        tex=value.latex(style),
+        tex_other=value.latex(other),
+    )
+
+
+def wanted_keys(plan: SitePlan) -> list[tuple[str, tuple[int, ...]]]:
+    """Every (family, key) the site shows, in plan order, without repeats."""
+    out: dict[tuple[str, tuple[int, ...]], None] = {}
+    for table in plan.tables:
+        for entry in table.entries:
+            out[(table.family, entry.key)] = None
+            if entry.w_form is not None:
+                out[("w", entry.w_form[0])] = None
+    return list(out)
+
+
+def _compute_chunk(args: tuple[list[tuple[str, tuple[int, ...]]], int, str]) -> list[Shown]:
+    keys, digits, style = args
+    return [show(DOUBLED[family](*key), digits, style) for family, key in keys]
+
+
+def compute_values(
+    plan: SitePlan,
+    jobs: int | None = None,
+    progress: Callable[[int, int], None] | None = None,
+) -> ValueBook:
+    """The ValueBook for a plan; ``jobs`` processes (default: all cores)."""
+    keys = wanted_keys(plan)
+    digits, style = plan.recipe.digits, plan.recipe.latex_style
+    chunks = [keys[i : i + CHUNK] for i in range(0, len(keys), CHUNK)]
+    jobs = jobs or os.cpu_count() or 1
+    results: list[Shown] = []
+    done = 0
+    for shown in _run(chunks, digits, style, jobs if len(keys) >= PARALLEL_THRESHOLD else 1):
+        results.extend(shown)
+        done += len(shown)
+        if progress:
+            progress(done, len(keys))
+    return dict(zip(keys, results))
+
+
+def _run(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
+    work = [(c, digits, style) for c in chunks]
+    if jobs <= 1 or len(work) <= 1:
+        for w in work:
+            yield _compute_chunk(w)
+        return
+    import multiprocessing
+
+    ctx = multiprocessing.get_context("fork" if hasattr(os, "fork") else "spawn")
+    with ctx.Pool(jobs) as pool:
+        yield from pool.imap(_compute_chunk, work)

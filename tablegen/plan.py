@@ -1,0 +1,465 @@
+"""The site plan: every page, table, anchor and URL, as pure data.
+
+Planning happens before anything is computed or rendered, so a cross-link can
+only point at something the plan contains.  Nothing here does I/O, imports
+Jinja or computes a coefficient value; the only maths is combinatorics
+(which symbols a range holds, and their symmetry classes).
+
+Paths are relative to the site root and use '/'.  Half-integers appear in
+file names in decimal form ("cg/1.5x2.html") and in anchors as fractions
+("J=5/2,M=-1/2,m1=1"); site.js builds the same names from typed numbers.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from .recipe import FAMILY_NAMES, FamilyRange, Recipe
+from .spins import half_text
+from .symmetry import ninej_members, sixj_members
+
+__all__ = [
+    "Link",
+    "Entry",
+    "Section",
+    "Table",
+    "Page",
+    "SitePlan",
+    "plan_site",
+    "file_code",
+    "cg_page_path",
+    "threej_page_path",
+    "sixj_page_path",
+    "ninej_page_path",
+]
+
+
+@dataclass(frozen=True)
+class Link:
+    """A labelled link to a page (path) or to a place on it (path#anchor)."""
+
+    label: str
+    path: str
+
+
+@dataclass(frozen=True)
+class Entry:
+    """One tabulated value.
+
+    key: doubled arguments in the family's argument order
+         (cg: j1 m1 j2 m2 J M; 3j: j1 j2 j3 m1 m2 m3; 6j: six; 9j: nine in rows).
+    anchor: HTML id, unique on its page.
+    twin: the same number in the other convention (CG <-> 3j), if tabulated.
+    members: 6j/9j only: every symbol of the class with its sign,
+             value(member) = sign * value(key); the key itself comes first.
+    w_form: 6j only: (W arguments, sign) with W = sign * this 6j.
+    """
+
+    key: tuple[int, ...]
+    anchor: str
+    twin: Link | None = None
+    members: tuple[tuple[tuple[int, ...], int], ...] = ()
+    w_form: tuple[tuple[int, ...], int] | None = None
+
+
+@dataclass(frozen=True)
+class Section:
+    """A block of a table.
+
+    CG: one J, laid out as a grid with rows M and columns m1 (m2 = M - m1).
+    3j: one j3, grid with rows m3 and columns m1 (m2 = -m1 - m3).
+    6j/9j: a list of classes (grid empty).
+    grid[r][c] is the Entry at row r, column c, or None where no value exists.
+    row_anchors: per row, an id for the row (CG: the ket expansion of |J M>).
+    """
+
+    title: str
+    anchor: str
+    entries: tuple[Entry, ...]
+    rows: tuple[int, ...] = ()
+    columns: tuple[int, ...] = ()
+    grid: tuple[tuple[Entry | None, ...], ...] = ()
+    row_anchors: tuple[str, ...] = ()
+    params: tuple[tuple[str, int], ...] = ()
+
+
+@dataclass(frozen=True)
+class Table:
+    """One table: what a page shows and what one data file and one LaTeX sheet hold."""
+
+    id: str
+    family: str
+    title: str
+    page: str
+    sections: tuple[Section, ...]
+    params: tuple[tuple[str, int], ...]
+    csv: str
+    json: str
+    tex: str
+    tex_sheet: str
+
+    @property
+    def entries(self) -> tuple[Entry, ...]:
+        return tuple(e for s in self.sections for e in s.entries)
+
+
+@dataclass(frozen=True)
+class Page:
+    """One HTML page."""
+
+    path: str
+    title: str
+    kind: str  # index, conventions, methods, cite, cg, 3j, 6j, 9j
+    tables: tuple[str, ...] = ()
+    prev: Link | None = None
+    next: Link | None = None
+    related: tuple[Link, ...] = ()
+
+
+@dataclass(frozen=True)
+class SitePlan:
+    recipe: Recipe
+    pages: tuple[Page, ...]
+    tables: tuple[Table, ...]
+    family_pages: tuple[tuple[str, tuple[str, ...]], ...] = field(default=())
+    booklet: str = "latex/booklet.tex"
+
+    def table(self, table_id: str) -> Table:
+        for t in self.tables:
+            if t.id == table_id:
+                return t
+        raise KeyError(table_id)
+
+    def tables_of(self, family: str) -> tuple[Table, ...]:
+        return tuple(t for t in self.tables if t.family == family)
+
+
+# -- names -------------------------------------------------------------------
+def file_code(t: int) -> str:
+    """A doubled j as it appears in file names: 4 -> '2', 3 -> '1.5'."""
+    return str(t // 2) if t % 2 == 0 else f"{t // 2}.5"
+
+
+def cg_page_path(tj1: int, tj2: int) -> str:
+    return f"cg/{file_code(tj1)}x{file_code(tj2)}.html"
+
+
+def threej_page_path(tj1: int, tj2: int) -> str:
+    return f"3j/{file_code(tj1)}x{file_code(tj2)}.html"
+
+
+def sixj_page_path(top: int) -> str:
+    return f"6j/jmax-{file_code(top)}.html"
+
+
+def ninej_page_path(top: int) -> str:
+    return f"9j/jmax-{file_code(top)}.html"
+
+
+def _h(t: int) -> str:
+    return half_text(t)
+
+
+def cg_anchor(tJ: int, tM: int, tm1: int) -> str:
+    return f"J={_h(tJ)},M={_h(tM)},m1={_h(tm1)}"
+
+
+def threej_anchor(tj3: int, tm3: int, tm1: int) -> str:
+    return f"j3={_h(tj3)},m3={_h(tm3)},m1={_h(tm1)}"
+
+
+def symbol_anchor(key: tuple[int, ...], row: int) -> str:
+    """'1,1,1;1,1,1' for a 6j (row=3), '1,1,0;1,1,1;0,1,1' for a 9j."""
+    parts = [",".join(_h(x) for x in key[i : i + row]) for i in range(0, len(key), row)]
+    return ";".join(parts)
+
+
+def _table_files(table_id: str) -> dict[str, str]:
+    return {
+        "csv": f"data/{table_id}.csv",
+        "json": f"data/{table_id}.json",
+        "tex": f"latex/{table_id}.tex",
+        "tex_sheet": f"latex/{table_id}-sheet.tex",
+    }
+
+
+def _chain(pages: list[Page]) -> list[Page]:
+    """Set prev/next links along a family's page order."""
+    out = []
+    for i, p in enumerate(pages):
+        prev = Link(pages[i - 1].title, pages[i - 1].path) if i else None
+        nxt = Link(pages[i + 1].title, pages[i + 1].path) if i + 1 < len(pages) else None
+        out.append(Page(p.path, p.title, p.kind, p.tables, prev, nxt, p.related))
+    return out
+
+
+def _in(f: FamilyRange | None, *tjs: int) -> bool:
+    return f is not None and all(f.min_tj <= t <= f.max_tj for t in tjs)
+
+
+# -- CG and 3j -----------------------------------------------------------------
+def _cg_table(tj1: int, tj2: int, threej: FamilyRange | None) -> Table:
+    page = cg_page_path(tj1, tj2)
+    twin_page = threej_page_path(tj1, tj2) if _in(threej, tj1, tj2) else None
+    sections = []
+    for tJ in range(tj1 + tj2, abs(tj1 - tj2) - 1, -2):
+        rows = tuple(range(tJ, -tJ - 1, -2))
+        cols = tuple(range(tj1, -tj1 - 1, -2))
+        grid = []
+        entries = []
+        for tM in rows:
+            line = []
+            for tm1 in cols:
+                tm2 = tM - tm1
+                if abs(tm2) > tj2:
+                    line.append(None)
+                    continue
+                twin = (
+                    Link(f"({_h(tj1)} {_h(tj2)} {_h(tJ)}; {_h(tm1)} {_h(tm2)} {_h(-tM)})",
+                         f"{twin_page}#{threej_anchor(tJ, -tM, tm1)}")
+                    if twin_page else None
+                )
+                e = Entry((tj1, tm1, tj2, tm2, tJ, tM), cg_anchor(tJ, tM, tm1), twin)
+                line.append(e)
+                entries.append(e)
+            grid.append(tuple(line))
+        sections.append(
+            Section(
+                title=f"J = {_h(tJ)}",
+                anchor=f"J={_h(tJ)}",
+                entries=tuple(entries),
+                rows=rows,
+                columns=cols,
+                grid=tuple(grid),
+                row_anchors=tuple(f"ket:J={_h(tJ)},M={_h(tM)}" for tM in rows),
+                params=(("J", tJ),),
+            )
+        )
+    tid = f"cg-{file_code(tj1)}x{file_code(tj2)}"
+    return Table(
+        id=tid,
+        family="cg",
+        title=f"Clebsch–Gordan coefficients for j1 = {_h(tj1)}, j2 = {_h(tj2)}",
+        page=page,
+        sections=tuple(sections),
+        params=(("j1", tj1), ("j2", tj2)),
+        **_table_files(tid),
+    )
+
+
+def _threej_table(tj1: int, tj2: int, cg: FamilyRange | None) -> Table:
+    page = threej_page_path(tj1, tj2)
+    twin_page = cg_page_path(tj1, tj2) if _in(cg, tj1, tj2) else None
+    sections = []
+    for tj3 in range(tj1 + tj2, abs(tj1 - tj2) - 1, -2):
+        rows = tuple(range(tj3, -tj3 - 1, -2))
+        cols = tuple(range(tj1, -tj1 - 1, -2))
+        grid = []
+        entries = []
+        for tm3 in rows:
+            line = []
+            for tm1 in cols:
+                tm2 = -tm1 - tm3
+                if abs(tm2) > tj2:
+                    line.append(None)
+                    continue
+                twin = (
+                    Link(f"<{_h(tj1)} {_h(tm1)}; {_h(tj2)} {_h(tm2)} | {_h(tj3)} {_h(-tm3)}>",
+                         f"{twin_page}#{cg_anchor(tj3, -tm3, tm1)}")
+                    if twin_page else None
+                )
+                e = Entry((tj1, tj2, tj3, tm1, tm2, tm3), threej_anchor(tj3, tm3, tm1), twin)
+                line.append(e)
+                entries.append(e)
+            grid.append(tuple(line))
+        sections.append(
+            Section(
+                title=f"j3 = {_h(tj3)}",
+                anchor=f"j3={_h(tj3)}",
+                entries=tuple(entries),
+                rows=rows,
+                columns=cols,
+                grid=tuple(grid),
+                row_anchors=tuple(f"row:j3={_h(tj3)},m3={_h(tm3)}" for tm3 in rows),
+                params=(("j3", tj3),),
+            )
+        )
+    tid = f"3j-{file_code(tj1)}x{file_code(tj2)}"
+    return Table(
+        id=tid,
+        family="3j",
+        title=f"Wigner 3j symbols for j1 = {_h(tj1)}, j2 = {_h(tj2)}",
+        page=page,
+        sections=tuple(sections),
+        params=(("j1", tj1), ("j2", tj2)),
+        **_table_files(tid),
+    )
+
+
+def _pair_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]:
+    f = recipe.family(family)
+    other_name = "3j" if family == "cg" else "cg"
+    other = recipe.family(other_name)
+    make = _cg_table if family == "cg" else _threej_table
+    path_of = cg_page_path if family == "cg" else threej_page_path
+    other_path = threej_page_path if family == "cg" else cg_page_path
+    js = range(f.min_tj, f.max_tj + 1)
+    pages, tables = [], []
+    for tj1 in js:
+        for tj2 in js:
+            table = make(tj1, tj2, other)
+            related = []
+            if _in(other, tj1, tj2):
+                related.append(Link(f"{other_name.upper() if other_name == 'cg' else other_name} "
+                                    f"for {_h(tj1)} ⊗ {_h(tj2)}", other_path(tj1, tj2)))
+            if tj1 != tj2:
+                related.append(Link(f"reversed order {_h(tj2)} ⊗ {_h(tj1)}", path_of(tj2, tj1)))
+            for d1, d2 in ((-1, 0), (1, 0), (0, -1), (0, 1)):
+                a, b = tj1 + d1, tj2 + d2
+                if _in(f, a, b):
+                    related.append(Link(f"{_h(a)} ⊗ {_h(b)}", path_of(a, b)))
+            title = (
+                f"⟨{_h(tj1)} m1; {_h(tj2)} m2 | J M⟩ — coupling {_h(tj1)} ⊗ {_h(tj2)}"
+                if family == "cg"
+                else f"3j symbols ({_h(tj1)} {_h(tj2)} j3; m1 m2 m3)"
+            )
+            pages.append(Page(table.page, title, family, (table.id,), related=tuple(related)))
+            tables.append(table)
+    return _chain(pages), tables
+
+
+# -- 6j and 9j -------------------------------------------------------------------
+def _triangle(a: int, b: int, c: int) -> bool:
+    return not (a + b + c) & 1 and abs(a - b) <= c <= a + b
+
+
+def sixj_symbols(f: FamilyRange):
+    """Every 6j with all j in the range and all four triads allowed, in order."""
+    js = range(f.min_tj, f.max_tj + 1)
+    for a in js:
+        for b in js:
+            for c in js:
+                if not _triangle(a, b, c):
+                    continue
+                for d in js:
+                    for e in js:
+                        if not _triangle(d, e, c):
+                            continue
+                        for g in js:
+                            if _triangle(a, e, g) and _triangle(d, b, g):
+                                yield (a, b, c, d, e, g)
+
+
+def ninej_symbols(f: FamilyRange):
+    """Every 9j with all j in the range and all six triads allowed, in order."""
+    js = range(f.min_tj, f.max_tj + 1)
+    rows = [(a, b, c) for a in js for b in js for c in js if _triangle(a, b, c)]
+    for r1 in rows:
+        for r2 in rows:
+            for r3 in rows:
+                if _triangle(r1[0], r2[0], r3[0]) and _triangle(r1[1], r2[1], r3[1]) and _triangle(
+                    r1[2], r2[2], r3[2]
+                ):
+                    yield r1 + r2 + r3
+
+
+def _classes(symbols, members_of):
+    """Group symbols into classes; each class keyed by its canonical (largest) form."""
+    seen: set[tuple[int, ...]] = set()
+    classes = []
+    for s in symbols:
+        if s in seen:
+            continue
+        members = members_of(*s)  # sorted descending: members[0] is the canonical form
+        canon, canon_sign = members[0]
+        # re-express signs relative to the canonical form
+        rel = tuple((m, sign * canon_sign) for m, sign in members)
+        seen.update(m for m, _ in members)
+        classes.append((canon, rel))
+    classes.sort(key=lambda c: c[0])
+    return classes
+
+
+def _symbol_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]:
+    f = recipe.family(family)
+    if family == "6j":
+        classes = _classes(sixj_symbols(f), sixj_members)
+        path_of, row = sixj_page_path, 3
+    else:
+        classes = _classes(ninej_symbols(f), ninej_members)
+        path_of, row = ninej_page_path, 3
+    by_top: dict[int, list] = {}
+    for canon, members in classes:
+        by_top.setdefault(canon[0], []).append((canon, members))
+    pages, tables = [], []
+    for top in sorted(by_top):
+        entries = []
+        for canon, members in by_top[top]:
+            w_form = None
+            if family == "6j":
+                a, b, e, d, c, g = canon  # {a b e; d c f} = (-1)^(a+b+c+d) W(a b c d; e f)
+                w_form = ((a, b, c, d, e, g), -1 if ((a + b + c + d) // 2) & 1 else 1)
+            entries.append(Entry(canon, symbol_anchor(canon, row), None, members, w_form))
+        tid = f"{family}-jmax-{file_code(top)}"
+        label = "6j symbols" if family == "6j" else "9j symbols"
+        title = f"{label} whose largest j is {_h(top)}"
+        section = Section(title=title, anchor=f"jmax={_h(top)}", entries=tuple(entries))
+        tables.append(
+            Table(
+                id=tid,
+                family=family,
+                title=title,
+                page=path_of(top),
+                sections=(section,),
+                params=(("jmax", top),),
+                **_table_files(tid),
+            )
+        )
+        pages.append(Page(path_of(top), title, family, (tid,)))
+    return _chain(pages), tables
+
+
+# -- the whole site ---------------------------------------------------------------
+STATIC_PAGES = (
+    ("index.html", "index"),
+    ("conventions.html", "conventions"),
+    ("methods.html", "methods"),
+    ("cite.html", "cite"),
+)
+
+
+def plan_site(recipe: Recipe) -> SitePlan:
+    """Every page and table of the site the recipe asks for."""
+    pages: list[Page] = [
+        Page("index.html", recipe.title, "index"),
+        Page("conventions.html", "Conventions", "conventions"),
+        Page("methods.html", "How the values are computed and checked", "methods"),
+        Page("cite.html", "How to cite this build", "cite"),
+    ]
+    tables: list[Table] = []
+    family_pages = []
+    for f in recipe.families:
+        if f.family in ("cg", "3j"):
+            fp, ft = _pair_pages(recipe, f.family)
+        else:
+            fp, ft = _symbol_pages(recipe, f.family)
+        pages += fp
+        tables += ft
+        family_pages.append((f.family, tuple(p.path for p in fp)))
+    _check_unique(pages, tables)
+    return SitePlan(recipe, tuple(pages), tuple(tables), tuple(family_pages))
+
+
+def _check_unique(pages: list[Page], tables: list[Table]) -> None:
+    paths = [p.path for p in pages]
+    if len(set(paths)) != len(paths):
+        raise AssertionError("plan: two pages share a path")
+    for t in tables:
+        anchors = [s.anchor for s in t.sections] + [e.anchor for s in t.sections for e in s.entries]
+        anchors += [a for s in t.sections for a in s.row_anchors]
+        if len(set(anchors)) != len(anchors):
+            raise AssertionError(f"plan: duplicate anchor on {t.page}")
+
+
+def family_title(family: str) -> str:
+    return FAMILY_NAMES[family]

@@ -1,0 +1,99 @@
+"""The one place Jinja environments are made (HTML and LaTeX).
+
+HTML: autoescape on, StrictUndefined.  LaTeX: autoescape off (LaTeX has its
+own escaping filter, ``tex``) and delimiters that do not clash with braces:
+``<< expr >>``, ``<% stmt %>``, ``<# comment #>``.  Filters are registered from
+one dict.  Templates are found in the top-level templates/ folder of a source
+checkout, or in tablegen/templates inside an installed wheel.
+"""
+
+from __future__ import annotations
+
+from functools import lru_cache
+from pathlib import Path
+
+import jinja2
+
+from ..notation import half_text
+
+__all__ = ["templates_dir", "html_environment", "latex_environment", "tex_escape"]
+
+_TEX_SPECIALS = {
+    "\\": r"\textbackslash{}",
+    "{": r"\{",
+    "}": r"\}",
+    "#": r"\#",
+    "$": r"\$",
+    "%": r"\%",
+    "&": r"\&",
+    "_": r"\_",
+    "^": r"\textasciicircum{}",
+    "~": r"\textasciitilde{}",
+    "<": r"\textless{}",
+    ">": r"\textgreater{}",
+    "|": r"\textbar{}",
+}
+
+
+def tex_escape(text: object) -> str:
+    """Plain text made safe for LaTeX: specials escaped, control characters dropped."""
+    out = []
+    for ch in str(text):
+        if ch in _TEX_SPECIALS:
+            out.append(_TEX_SPECIALS[ch])
+        elif ch in "\n\r\t":
+            out.append(" ")
+        elif ord(ch) < 32 or ord(ch) == 127:
+            continue
+        else:
+            out.append(ch)
+    return "".join(out)
+
+
+FILTERS = {
+    "half": half_text,  # doubled int -> '3/2'
+    "tex": tex_escape,
+}
+
+
+def templates_dir() -> Path:
+    """templates/ beside the package (checkout) or tablegen/templates (wheel)."""
+    here = Path(__file__).resolve().parent.parent
+    for candidate in (here / "templates", here.parent / "templates"):
+        if candidate.is_dir():
+            return candidate
+    raise FileNotFoundError("tablegen templates folder not found")
+
+
+@lru_cache(maxsize=None)
+def html_environment() -> jinja2.Environment:
+    env = jinja2.Environment(
+        loader=jinja2.FileSystemLoader(str(templates_dir() / "html")),
+        autoescape=True,
+        undefined=jinja2.StrictUndefined,
+        trim_blocks=True,
+        lstrip_blocks=True,
+        keep_trailing_newline=True,
+    )
+    env.filters.update(FILTERS)
+    return env
+
+
+@lru_cache(maxsize=None)
+def latex_environment() -> jinja2.Environment:
+    env = jinja2.Environment(
+        loader=jinja2.FileSystemLoader(str(templates_dir() / "latex")),
+        autoescape=False,
+        undefined=jinja2.StrictUndefined,
+        block_start_string="<%",
+        block_end_string="%>",
+        variable_start_string="<<",
+        variable_end_string=">>",
+        comment_start_string="<#",
+        comment_end_string="#>",
+        trim_blocks=True,
+        lstrip_blocks=True,
+        keep_trailing_newline=True,
+    )
+    env.filters.update(FILTERS)
+    return env
