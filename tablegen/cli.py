@@ -62,6 +62,35 @@ def _build_parser() -> argparse.ArgumentParser:
     value.add_argument("--latex", action="store_true", help="also print the LaTeX (both root styles)")
     value.add_argument("--json", action="store_true", help="print one JSON object instead of text")
     value.add_argument("--max-j", type=int, default=None, help="raise the size limit on j")
+
+    build = sub.add_parser(
+        "build",
+        help="write the reference site",
+        description="Write the offline reference site for a recipe (the built-in default recipe "
+        "when no --recipe and no family option is given). Family options take a RANGE: MAX, "
+        "MIN..MAX (e.g. 1/2..7/2) or 'none' to leave the family out.",
+    )
+    build.add_argument("--recipe", metavar="FILE", help="TOML recipe file")
+    build.add_argument("--out", metavar="DIR", default="site", help="output folder (default: ./site)")
+    for family in ("cg", "3j", "6j", "9j"):
+        build.add_argument(f"--{family}", metavar="RANGE", dest=f"range_{family}", help=f"range of j for {family}")
+    build.add_argument("--digits", type=int, help="significant digits of the decimals")
+    build.add_argument("--latex-style", choices=("root", "rational"), help="LaTeX root style")
+    build.add_argument("--title", help="title of the build")
+    build.add_argument("--notes", help="notes shown on the index page")
+    build.add_argument("--jobs", type=int, help="processes for computing (default: all cores)")
+    build.add_argument("--allow-large", action="store_true", help="build even above the size guard")
+    build.add_argument("--quiet", action="store_true", help="no progress or summary output")
+    build.set_defaults(run=_run_build)
+
+    verify = sub.add_parser(
+        "verify",
+        help="re-check a built site",
+        description="Check every file against SHA256SUMS, report missing and extra files, and "
+        "recompute every value in the data files. Exit status 0 only when everything holds.",
+    )
+    verify.add_argument("folder", metavar="DIR")
+    verify.set_defaults(run=_run_verify)
     return parser
 
 
@@ -154,6 +183,83 @@ def _run_value(ns: argparse.Namespace) -> int:
         print(f"  latex    {value.latex('root')}")
         print(f"  latex    {value.latex('rational')}  (rationalised)")
     return EXIT_OK
+
+
+def _range_option(family: str, text: str) -> dict | bool:
+    """'4' -> {max_j: '4'}; '1/2..7/2' -> {min_j, max_j}; 'none' -> False (leave out)."""
+    text = text.strip()
+    if text.lower() == "none":
+        return False
+    lo, sep, hi = text.partition("..")
+    if sep:
+        return {"min_j": lo.strip(), "max_j": hi.strip()}
+    return {"max_j": text}
+
+
+def _build_recipe(ns: argparse.Namespace):
+    from .recipe import DEFAULT_RECIPE, Recipe, load_recipe, recipe_from_mapping
+
+    overrides: dict = {}
+    for family in ("cg", "3j", "6j", "9j"):
+        text = getattr(ns, f"range_{family}")
+        if text is not None:
+            overrides[family] = _range_option(family, text)
+    for key in ("digits", "latex_style", "title", "notes"):
+        value = getattr(ns, key)
+        if value is not None:
+            overrides[key] = value
+    if ns.recipe:
+        base = load_recipe(ns.recipe)
+    elif any(f in overrides for f in ("cg", "3j", "6j", "9j")):
+        base = Recipe(title=DEFAULT_RECIPE.title)  # only the families asked for
+    else:
+        base = DEFAULT_RECIPE
+    recipe = recipe_from_mapping(overrides, base=base)
+    if not recipe.families:
+        raise _UsageError("tablegen build: the recipe tabulates no family (give --cg, --3j, --6j or --9j)")
+    return recipe
+
+
+def _run_build(ns: argparse.Namespace) -> int:
+    import signal
+
+    from .build import build
+
+    if ns.jobs is not None and ns.jobs < 1:
+        raise _UsageError(f"tablegen build: argument --jobs = {ns.jobs}: must be >= 1")
+    recipe = _build_recipe(ns)
+    # a terminated build must clean its staging folder: turn SIGTERM into an exception
+    signal.signal(signal.SIGTERM, _raise_interrupt)
+    show = sys.stderr.isatty() and not ns.quiet
+
+    def progress(stage: str, done: int, total: int) -> None:
+        text = f"{stage} {done:,}/{total:,} values" if total else f"{stage} {done:,} files"
+        print(f"\rtablegen: {text}\033[K", end="", file=sys.stderr, flush=True)
+
+    result = build(recipe, ns.out, jobs=ns.jobs, allow_large=ns.allow_large, progress=progress if show else None)
+    if show:
+        print("\r\033[K", end="", file=sys.stderr)
+    if not ns.quiet:
+        print(
+            f"tablegen: wrote {result.out_dir}: {result.pages} pages, {result.files} files, "
+            f"{result.values:,} values, {result.bytes / 1e6:.1f} MB in {result.seconds:.1f} s; "
+            f"data digest {result.data_digest}"
+        )
+    return EXIT_OK
+
+
+def _raise_interrupt(signum, frame):  # pragma: no cover - signal handler
+    raise KeyboardInterrupt
+
+
+def _run_verify(ns: argparse.Namespace) -> int:
+    from .verify import verify_site
+
+    report = verify_site(ns.folder)
+    print(report.summary())
+    for problem in report.problems:
+        print(f"  {problem}")
+    return EXIT_OK if report.ok else EXIT_FAILED
 
 
 def _half(t: int) -> str:
