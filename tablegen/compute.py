@@ -78,14 +78,18 @@ def compute_values(
     jobs: int | None = None,
     progress: Callable[[int, int], None] | None = None,
 ) -> ValueBook:
-    """The ValueBook for a plan; ``jobs`` processes (default: all cores)."""
+    """The ValueBook for a plan in ``jobs`` processes.
+
+    Default: all cores once the build is large enough to repay starting them.
+    """
     keys = wanted_keys(plan)
     digits, style = plan.recipe.digits, plan.recipe.latex_style
     chunks = [keys[i : i + CHUNK] for i in range(0, len(keys), CHUNK)]
-    jobs = jobs or os.cpu_count() or 1
+    if jobs is None:
+        jobs = (os.cpu_count() or 1) if len(keys) >= PARALLEL_THRESHOLD else 1
     results: list[Shown] = []
     done = 0
-    for shown in _run(chunks, digits, style, jobs if len(keys) >= PARALLEL_THRESHOLD else 1):
+    for shown in _run(chunks, digits, style, jobs):
         results.extend(shown)
         done += len(shown)
         if progress:
