@@ -13,6 +13,7 @@ file names in decimal form ("cg/1.5x2.html") and in anchors as fractions
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 
 from .recipe import FAMILY_NAMES, FamilyRange, Recipe
 from .spins import half_text
@@ -156,8 +157,7 @@ def ninej_page_path(top: int) -> str:
     return f"9j/jmax-{file_code(top)}.html"
 
 
-def _h(t: int) -> str:
-    return half_text(t)
+_h = lru_cache(maxsize=4096)(half_text)  # called for every anchor and label
 
 
 def cg_anchor(tJ: int, tM: int, tm1: int) -> str:
