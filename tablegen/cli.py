@@ -109,6 +109,8 @@ def _reorder_value_argv(argv: list[str]) -> list[str]:
                 options.append(next(tokens, ""))
         elif token in _VALUE_FLAGS or (token.startswith("--") and token != "--"):
             options.append(token)
+        elif token != "--" and len(token) > 1 and token[0] == "-" and not (token[1].isdigit() or token[1] == "."):
+            options.append(token)  # '-x': an option (unknown ones are reported as such)
         elif token != "--":
             positionals.append(token)
     return ["value", *options, "--", *positionals]
@@ -135,6 +137,8 @@ def main(argv: list[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("tablegen: interrupted", file=sys.stderr)
         return 130
+    except SystemExit as exc:  # --help and --version end through argparse's exit
+        return exc.code if isinstance(exc.code, int) else EXIT_OK
 
 
 def _run_value(ns: argparse.Namespace) -> int:

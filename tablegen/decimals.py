@@ -8,6 +8,8 @@ too close to a rounding boundary.  No float is involved.
 
 from __future__ import annotations
 
+from .intmath import int_text
+
 __all__ = ["surd_decimal", "MAX_DIGITS"]
 
 MAX_DIGITS = 100_000
@@ -68,7 +70,7 @@ def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
             break
     else:  # pragma: no cover - would mean mpmath was wildly off
         raise ArithmeticError("decimal rounding did not converge")
-    return _format(sign, str(a), e10)
+    return _format(sign, int_text(a), e10)
 
 
 def _format(sign: int, mantissa: str, e10: int) -> str:

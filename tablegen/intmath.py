@@ -12,6 +12,8 @@ from __future__ import annotations
 from math import gcd, isqrt
 
 __all__ = [
+    "int_text",
+    "is_probable_prime",
     "factorial",
     "primes_upto",
     "factorial_exponent",
@@ -160,18 +162,43 @@ def _tree_product(values: list[int]) -> int:
     return values[0]
 
 
-def prime_exponents(n: int) -> dict[int, int]:
-    """Prime factorisation of n >= 1 as {prime: exponent}, primes ascending.
+_TRIAL_BOUND = 10_000  # covers every prime of a factorial ratio for j <= 2000
+_MR_BASES = (2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41)
 
-    Trial division by small primes finds every factor that a factorial ratio
-    can contribute; a large cofactor left over (only possible from the
-    integer Racah sum) is handed to sympy, imported lazily.
+
+def is_probable_prime(n: int) -> bool:
+    """Miller-Rabin with the first 13 prime bases.
+
+    Deterministic below 3.3e24; above that a composite passes with
+    probability below 4**-13 (and never one with a repeated prime factor
+    larger than the bases, in practice).
     """
-    if n < 1:
-        raise ValueError(f"prime_exponents needs n >= 1, got {n}")
+    if n < 2:
+        return False
+    for p in _MR_BASES:
+        if n % p == 0:
+            return n == p
+    d, s = n - 1, 0
+    while not d & 1:
+        d >>= 1
+        s += 1
+    for a in _MR_BASES:
+        x = pow(a, d, n)
+        if x in (1, n - 1):
+            continue
+        for _ in range(s - 1):
+            x = x * x % n
+            if x == n - 1:
+                break
+        else:
+            return False
+    return True
+
+
+def _trial(n: int) -> tuple[dict[int, int], int]:
+    """Small-prime part of n as {prime: exponent} and the cofactor left over."""
     out: dict[int, int] = {}
-    bound = 10_000
-    for p in primes_upto(bound):
+    for p in primes_upto(_TRIAL_BOUND):
         if p * p > n:
             break
         if n % p == 0:
@@ -180,26 +207,78 @@ def prime_exponents(n: int) -> dict[int, int]:
                 n //= p
                 e += 1
             out[p] = e
-    if n > 1:
-        if n < bound * bound:
-            out[n] = out.get(n, 0) + 1
-        else:
-            from sympy import factorint  # rare: only for large prime cofactors
+    return out, n
 
-            for p, e in factorint(n).items():
-                out[int(p)] = out.get(int(p), 0) + int(e)
+
+def _cofactor_exponents(r: int) -> dict[int, int]:
+    """Factor a cofactor with no prime below the trial bound.
+
+    Perfect powers and primes are recognised directly; only a composite that
+    is neither is handed to sympy (imported lazily).  The engine's values
+    never need sympy: their large factors come from the square of the
+    integer Racah sum, so the cofactor is a perfect square.
+    """
+    if r == 1:
+        return {}
+    if r < _TRIAL_BOUND * _TRIAL_BOUND or is_probable_prime(r):
+        return {r: 1}
+    root = isqrt(r)
+    if root * root == r:
+        return {p: 2 * e for p, e in _cofactor_exponents(root).items()}
+    from sympy import factorint  # rare: a composite, non-square cofactor
+
+    return {int(p): int(e) for p, e in factorint(r).items()}
+
+
+def prime_exponents(n: int) -> dict[int, int]:
+    """Prime factorisation of n >= 1 as {prime: exponent}, primes ascending.
+
+    Trial division finds every factor a factorial ratio can contribute; what
+    is left (only from the integer Racah sum) may take real factoring, which
+    can be slow for symbols with j in the hundreds.
+    """
+    if n < 1:
+        raise ValueError(f"prime_exponents needs n >= 1, got {n}")
+    out, rest = _trial(n)
+    for p, e in _cofactor_exponents(rest).items():
+        out[p] = out.get(p, 0) + e
     return dict(sorted(out.items()))
 
 
 def split_square(n: int) -> tuple[int, int]:
-    """Write n >= 1 as a**2 * b with b square-free; return (a, b)."""
+    """Write n >= 1 as a**2 * b with b square-free; return (a, b).
+
+    Needs the square-free part only, so a large cofactor that is a perfect
+    square or a prime is never factored further.
+    """
     r = isqrt(n)
     if r * r == n:
         return r, 1
+    small, rest = _trial(n)
     a = b = 1
-    for p, e in prime_exponents(n).items():
+    for p, e in small.items():
+        a *= p ** (e // 2)
+        if e % 2:
+            b *= p
+    root = isqrt(rest)
+    if root * root == rest:
+        return a * root, b
+    if rest < _TRIAL_BOUND * _TRIAL_BOUND or is_probable_prime(rest):
+        return a, b * rest
+    for p, e in _cofactor_exponents(rest).items():
         a *= p ** (e // 2)
         if e % 2:
             b *= p
     return a, b
 
+
+def int_text(n: int) -> str:
+    """Decimal text of any int, also beyond CPython's 4300-digit str() limit."""
+    if -(10**4000) < n < 10**4000:
+        return str(n)
+    if n < 0:
+        return "-" + int_text(-n)
+    # divide and conquer on a power of ten of about half the length
+    half = (n.bit_length() * 30103 // 100000) // 2
+    high, low = divmod(n, 10**half)
+    return int_text(high) + int_text(low).rjust(half, "0")

@@ -57,7 +57,7 @@ def _doubled(value: object, argument: str) -> int:
     if isinstance(value, numbers.Integral):
         return 2 * int(value)
     if isinstance(value, numbers.Rational):
-        return _doubled(Fraction(int(value.numerator), int(value.denominator)), argument)
+        return _doubled_fraction(Fraction(int(value.numerator), int(value.denominator)), value, argument)
     if isinstance(value, numbers.Real):  # float, numpy floating: exact binary value
         f = float(value)
         if f != f or f in (float("inf"), float("-inf")):
@@ -69,8 +69,19 @@ def _doubled(value: object, argument: str) -> int:
     if type(value).__name__ == "Decimal":
         if not value.is_finite():  # type: ignore[union-attr]
             raise QuantumNumberError(argument, value, RULE_NOT_FINITE)
-        return _doubled(Fraction(value), argument)  # type: ignore[arg-type]
+        return _doubled_fraction(Fraction(value), value, argument)  # type: ignore[arg-type]
+    if getattr(value, "is_finite", None) is False or str(value) in ("nan", "oo", "-oo", "zoo"):
+        raise QuantumNumberError(argument, value, RULE_NOT_FINITE)  # sympy's nan and infinities
     raise QuantumNumberError(argument, value, RULE_NOT_NUMBER)
+
+
+def _doubled_fraction(f: Fraction, original: object, argument: str) -> int:
+    """2f for an exact rational, reporting errors with the value as the user gave it."""
+    if f.denominator == 1:
+        return 2 * f.numerator
+    if f.denominator == 2:
+        return f.numerator
+    raise QuantumNumberError(argument, original, RULE_NOT_HALF)
 
 
 def _doubled_from_text(text: str, argument: str) -> int:
@@ -83,9 +94,7 @@ def _doubled_from_text(text: str, argument: str) -> int:
         f = Fraction(stripped)
     except (ValueError, ZeroDivisionError):
         raise QuantumNumberError(argument, text, RULE_NOT_NUMBER) from None
-    if f.denominator > 2:
-        raise QuantumNumberError(argument, text, RULE_NOT_HALF)
-    return _doubled(f, argument)
+    return _doubled_fraction(f, text, argument)
 
 
 def _too_large_rule(max_j: int | None) -> str:

@@ -123,6 +123,9 @@ class Surd:
     def __eq__(self, other: object) -> bool:
         if isinstance(other, Surd):
             return (self._sign, self._p, self._q) == (other._sign, other._p, other._q)
+        if isinstance(other, float):
+            # a finite float is an exact binary rational; compare exactly
+            return other == other and abs(other) != float("inf") and self == Fraction(other)
         f = _as_fraction(other)
         if f is None:
             return NotImplemented
@@ -229,14 +232,16 @@ class Surd:
         if not self._sign:
             return "0"
         minus = "-" if self._sign < 0 else ""
+        text = intmath.int_text
         if self.is_rational():
             rp, rq = isqrt(self._p), isqrt(self._q)
-            return f"{minus}{rp}" if rq == 1 else f"{minus}{rp}/{rq}"
-        inner = str(self._p) if self._q == 1 else f"{self._p}/{self._q}"
+            return f"{minus}{text(rp)}" if rq == 1 else f"{minus}{text(rp)}/{text(rq)}"
+        inner = text(self._p) if self._q == 1 else f"{text(self._p)}/{text(self._q)}"
         return f"{minus}sqrt({inner})"
 
     def __repr__(self) -> str:
-        return f"Surd({self._sign}, {self._p}, {self._q})"
+        text = intmath.int_text
+        return f"Surd({self._sign}, {text(self._p)}, {text(self._q)})"
 
     def to_sympy(self):
         """The same number as a sympy expression (imports sympy)."""
@@ -268,22 +273,20 @@ class Surd:
             raise ValueError(f"argument style = {style!r}: must be one of {', '.join(_LATEX_STYLES)}")
         if not self._sign:
             return "0"
+        t = intmath.int_text
         if self.is_rational():
-            rp, rq = isqrt(self._p), isqrt(self._q)
-            body = str(rp) if rq == 1 else f"\\frac{{{rp}}}{{{rq}}}"
+            rp, rq = t(isqrt(self._p)), t(isqrt(self._q))
+            body = rp if rq == "1" else f"\\frac{{{rp}}}{{{rq}}}"
         elif style == "root":
-            body = (
-                f"\\sqrt{{{self._p}}}"
-                if self._q == 1
-                else f"\\sqrt{{\\frac{{{self._p}}}{{{self._q}}}}}"
-            )
+            p, q = t(self._p), t(self._q)
+            body = f"\\sqrt{{{p}}}" if q == "1" else f"\\sqrt{{\\frac{{{p}}}{{{q}}}}}"
         else:
             # sqrt(p/q) = sqrt(p*q)/q = a*sqrt(b)/q with p*q = a^2 b, b square-free
             a, b = intmath.split_square(self._p * self._q)
             g = gcd(a, self._q)
             a, den = a // g, self._q // g
-            top = f"\\sqrt{{{b}}}" if a == 1 else f"{a}\\sqrt{{{b}}}"
-            body = top if den == 1 else f"\\frac{{{top}}}{{{den}}}"
+            top = f"\\sqrt{{{t(b)}}}" if a == 1 else f"{t(a)}\\sqrt{{{t(b)}}}"
+            body = top if den == 1 else f"\\frac{{{top}}}{{{t(den)}}}"
         text = f"-{body}" if self._sign < 0 else body
         if wrap and (self._sign < 0 or "\\frac" in body):
             return f"\\left({text}\\right)"

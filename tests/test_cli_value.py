@@ -294,21 +294,11 @@ def test_value_path_imports_neither_sympy_nor_jinja2(argv):
     assert jinja_loaded == "False"
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="engine bug: Surd.latex('rational') calls intmath.split_square -> prime_exponents, which "
-    "imports sympy.factorint when p*q keeps a cofactor above 10**8 after trial division",
-)
 def test_value_path_latex_of_a_large_symbol_imports_no_sympy():
     _, sympy_loaded, _ = _probe(["value", "6j", "37", "41", "43", "47", "53", "59", "--latex"])
     assert sympy_loaded == "False"
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="engine bug: --digits above 4300 (MAX_DIGITS is 100000) ends in a ValueError traceback from "
-    "Python's int-to-str digit limit in decimals.surd_decimal",
-)
 def test_digits_above_4300_no_traceback():
     proc = _subprocess("value", "cg", "1", "1", "1/2", "-1/2", "3/2", "1/2", "--digits", "5000")
     assert "Traceback" not in proc.stderr

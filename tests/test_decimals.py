@@ -251,12 +251,6 @@ def test_thousands_of_digits_exact():
         _check(sign, p, q, digits)
 
 
-@pytest.mark.xfail(
-    strict=True,
-    raises=ValueError,
-    reason="engine bug: decimals.surd_decimal calls str() on a mantissa of more than 4300 digits, "
-    "which Python >= 3.11 refuses (int max str digits); MAX_DIGITS promises 100000",
-)
 @pytest.mark.parametrize("digits", [4301, 10_000])
 def test_more_than_4300_digits(digits):
     _check(-1, 5, 14, digits)
