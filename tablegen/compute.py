@@ -20,8 +20,8 @@ from .surd import Surd
 __all__ = ["Shown", "ValueBook", "compute_values", "wanted_keys", "show"]
 
 #: Below this many values one process is faster than starting a pool.
-PARALLEL_THRESHOLD = 40_000
-CHUNK = 4_000
+PARALLEL_THRESHOLD = 8_000
+CHUNK = 2_000
 
 
 @dataclass(frozen=True)

@@ -272,9 +272,12 @@ def split_square(n: int) -> tuple[int, int]:
     return a, b
 
 
+_STR_SAFE = 1 << 13000  # about 3,900 decimal digits: str() always accepts these
+
+
 def int_text(n: int) -> str:
     """Decimal text of any int, also beyond CPython's 4300-digit str() limit."""
-    if -(10**4000) < n < 10**4000:
+    if -_STR_SAFE < n < _STR_SAFE:
         return str(n)
     if n < 0:
         return "-" + int_text(-n)
