@@ -1,0 +1,344 @@
+"""The site plan: pages, grids, anchors, links and symmetry classes, before anything renders.
+
+The plan is checked against independent enumerations from the selection rules
+and, for values, against the engine and sympy.physics.wigner (an outside
+reference implementation of the same symbols).
+"""
+
+from __future__ import annotations
+
+import hashlib
+import os
+import subprocess
+import sys
+from fractions import Fraction
+from pathlib import Path
+
+import pytest
+from sympy import Rational, sign as sympy_sign
+from sympy.physics.wigner import racah, wigner_6j, wigner_9j
+
+from tablegen.coefficients import cg2, ninej2, racah_w2, sixj2, threej2
+from tablegen.plan import plan_site
+from tablegen.recipe import recipe_from_mapping
+
+REPO = Path(__file__).resolve().parent.parent
+
+SMALL = {"cg": {"max_j": "3/2"}, "3j": {"max_j": "3/2"}, "6j": {"max_j": "3/2"}, "9j": {"max_j": 1}}
+
+
+@pytest.fixture(scope="module")
+def plan():
+    return plan_site(recipe_from_mapping(SMALL))
+
+
+def _triangle(a: int, b: int, c: int) -> bool:
+    # triangle rule with an integer sum, doubled arguments -- common practice, no source
+    return (a + b + c) % 2 == 0 and abs(a - b) <= c <= a + b
+
+
+def _ms(t: int) -> range:
+    return range(-t, t + 1, 2)
+
+
+def _half(t: int) -> Rational:
+    return Rational(t, 2)
+
+
+def _signed_square(value) -> Fraction:
+    """sign * value**2 of a sympy number that is +-sqrt(rational), as a Fraction."""
+    square = (value**2).expand()
+    assert square.is_Rational, value
+    return Fraction(int(square.p), int(square.q)) * int(sympy_sign(value))
+
+
+def _anchors(table) -> list[str]:
+    out = [s.anchor for s in table.sections]
+    out += [e.anchor for s in table.sections for e in s.entries]
+    out += [a for s in table.sections for a in s.row_anchors]
+    return out
+
+
+def _anchor_index(plan) -> dict[str, dict[str, object]]:
+    """page path -> anchor -> Entry (or None for section and row anchors)."""
+    index: dict[str, dict[str, object]] = {}
+    for page in plan.pages:
+        anchors = index.setdefault(page.path, {})
+        for tid in page.tables:
+            table = plan.table(tid)
+            for a in _anchors(table):
+                anchors.setdefault(a, None)
+            for e in table.entries:
+                anchors[e.anchor] = e
+    return index
+
+
+# -- pages and tables --------------------------------------------------------------------
+def test_pages_and_tables_are_consistent(plan) -> None:
+    paths = [p.path for p in plan.pages]
+    assert len(paths) == len(set(paths))
+    assert {"index.html", "conventions.html", "methods.html", "cite.html"} <= set(paths)
+    on_pages = [tid for p in plan.pages for tid in p.tables]
+    assert sorted(on_pages) == sorted(t.id for t in plan.tables)  # each table on exactly one page
+    by_path = {p.path: p for p in plan.pages}
+    for t in plan.tables:
+        assert by_path[t.page].tables == (t.id,)  # one table per family page
+    files = [f for t in plan.tables for f in (t.csv, t.json, t.tex, t.tex_sheet)]
+    assert len(files) == len(set(files))
+
+
+def test_anchors_are_unique_per_page_and_usable_as_ids(plan) -> None:
+    for page in plan.pages:
+        anchors = [a for tid in page.tables for a in _anchors(plan.table(tid))]
+        assert len(anchors) == len(set(anchors)), page.path
+        # HTML ids: non-empty, no whitespace -- WHATWG HTML, "The id attribute"
+        assert all(a and not any(c.isspace() for c in a) for a in anchors), page.path
+
+
+def test_cg_grids_hold_exactly_the_allowed_coefficients(plan) -> None:
+    tables = plan.tables_of("cg")
+    assert len(tables) == 16  # (j1, j2) in {0, 1/2, 1, 3/2}^2
+    for table in tables:
+        tj1, tj2 = dict(table.params)["j1"], dict(table.params)["j2"]
+        # selection rules: |m| <= j, M = m1 + m2, triangle (j1 j2 J) -- Edmonds 1957, §3.5
+        expected = {
+            (tj1, tm1, tj2, tm2, tJ, tm1 + tm2)
+            for tm1 in _ms(tj1)
+            for tm2 in _ms(tj2)
+            for tJ in range(abs(tj1 - tj2), tj1 + tj2 + 1, 2)
+            if abs(tm1 + tm2) <= tJ
+        }
+        keys = [e.key for e in table.entries]
+        assert len(keys) == len(set(keys)), table.id
+        assert set(keys) == expected, table.id
+        for section in table.sections:
+            tJ = dict(section.params)["J"]
+            cells = []
+            for r, row in enumerate(section.grid):
+                assert len(row) == len(section.columns)
+                for c, entry in enumerate(row):
+                    tM, tm1 = section.rows[r], section.columns[c]
+                    if abs(tM - tm1) > tj2:
+                        assert entry is None
+                        continue
+                    assert entry is not None and entry.key == (tj1, tm1, tj2, tM - tm1, tJ, tM)
+                    cells.append(entry)
+            assert tuple(cells) == section.entries
+            assert len(section.row_anchors) == len(section.rows)
+
+
+def test_threej_grids_hold_exactly_the_allowed_symbols(plan) -> None:
+    for table in plan.tables_of("3j"):
+        tj1, tj2 = dict(table.params)["j1"], dict(table.params)["j2"]
+        # selection rules: |m| <= j, m1 + m2 + m3 = 0, triangle -- Edmonds 1957, §3.7
+        expected = {
+            (tj1, tj2, tj3, tm1, tm2, -tm1 - tm2)
+            for tm1 in _ms(tj1)
+            for tm2 in _ms(tj2)
+            for tj3 in range(abs(tj1 - tj2), tj1 + tj2 + 1, 2)
+            if abs(tm1 + tm2) <= tj3
+        }
+        keys = [e.key for e in table.entries]
+        assert len(keys) == len(set(keys)) and set(keys) == expected, table.id
+        for section in table.sections:
+            for r, row in enumerate(section.grid):
+                for c, entry in enumerate(row):
+                    if entry is not None:
+                        assert entry.key[3] == section.columns[c] and entry.key[5] == section.rows[r]
+
+
+def test_twin_links_point_at_existing_anchors_with_the_related_value(plan) -> None:
+    index = _anchor_index(plan)
+    seen = 0
+    for family, other in (("cg", "3j"), ("3j", "cg")):
+        for table in plan.tables_of(family):
+            for e in table.entries:
+                assert e.twin is not None  # both families cover the same range here
+                page, _, anchor = e.twin.path.partition("#")
+                assert page in index, e.twin.path
+                assert anchor in index[page], e.twin.path
+                twin = index[page][anchor]
+                assert twin is not None and twin.twin is not None
+                assert twin.twin.path.split("#")[0] == table.page and twin.twin.path.split("#")[1] == e.anchor
+                cg_key, tj_key = (e.key, twin.key) if family == "cg" else (twin.key, e.key)
+                tj1, tm1, tj2, tm2, tJ, tM = cg_key
+                assert tj_key == (tj1, tj2, tJ, tm1, tm2, -tM)
+                # <j1 m1; j2 m2|J M> = (-1)^(j1-j2+M) sqrt(2J+1) (j1 j2 J; m1 m2 -M)
+                # -- Edmonds 1957, eq. 3.7.3; compared as signed squares
+                phase = -1 if ((tj1 - tj2 + tM) // 2) % 2 else 1
+                assert cg2(*cg_key).squared() == phase * (tJ + 1) * threej2(*tj_key).squared()
+                seen += 1
+    assert seen > 100
+
+
+def test_no_twin_outside_the_other_family_range() -> None:
+    plan = plan_site(recipe_from_mapping({"cg": {"max_j": 1}, "3j": {"min_j": "1/2", "max_j": "1/2"}}))
+    index = _anchor_index(plan)
+    for table in plan.tables_of("cg"):
+        tj1, tj2 = dict(table.params)["j1"], dict(table.params)["j2"]
+        for e in table.entries:
+            if tj1 == tj2 == 1:
+                assert e.twin is not None and e.twin.path.split("#")[1] in index[e.twin.path.split("#")[0]]
+            else:
+                assert e.twin is None, (table.id, e.key)
+
+
+def test_prev_next_chains(plan) -> None:
+    by_path = {p.path: p for p in plan.pages}
+    assert [f for f, _ in plan.family_pages] == [f.family for f in plan.recipe.families]
+    for family, paths in plan.family_pages:
+        assert paths, family
+        chain = [by_path[p] for p in paths]
+        assert all(p.kind == family for p in chain)
+        assert chain[0].prev is None and chain[-1].next is None
+        for a, b in zip(chain, chain[1:]):
+            assert a.next.path == b.path and a.next.label == b.title
+            assert b.prev.path == a.path and b.prev.label == a.title
+    for page in plan.pages:
+        for link in page.related:
+            assert link.path.split("#")[0] in by_path, (page.path, link)
+
+
+# -- 6j, W and 9j classes -------------------------------------------------------------------
+def _sixj_in_range(lo: int, hi: int) -> set[tuple[int, ...]]:
+    # four triads (j1 j2 j3), (j1 j5 j6), (j4 j2 j6), (j4 j5 j3) -- Edmonds 1957, §6.2
+    js = range(lo, hi + 1)
+    return {
+        (a, b, c, d, e, f)
+        for a in js for b in js for c in js if _triangle(a, b, c)
+        for d in js for e in js if _triangle(d, e, c)
+        for f in js if _triangle(a, e, f) and _triangle(d, b, f)
+    }
+
+
+@pytest.mark.parametrize("lo, hi", [(0, 3), (1, 4)])
+def test_sixj_classes_partition_the_symbols_in_range(lo: int, hi: int) -> None:
+    plan = plan_site(recipe_from_mapping({"6j": {"min_j": f"{lo}/2", "max_j": f"{hi}/2"}}))
+    wanted = _sixj_in_range(lo, hi)
+    owner: dict[tuple[int, ...], tuple[int, ...]] = {}
+    for table in plan.tables_of("6j"):
+        for e in table.entries:
+            assert e.members[0] == (e.key, 1)  # the key itself comes first
+            for member, sign in e.members:
+                assert member not in owner, f"{member} in two classes"
+                owner[member] = e.key
+                # value(member) = sign * value(key): Regge 1959 and the classical symmetries
+                assert sixj2(*member) == sixj2(*e.key) * sign
+    missing = wanted - owner.keys()
+    assert not missing, sorted(missing)[:5]
+    # every class is there because one of its symbols lies in the range
+    keys = {e.key for t in plan.tables_of("6j") for e in t.entries}
+    assert keys == {owner[s] for s in wanted}
+
+
+def test_sixj_values_agree_with_sympy(plan) -> None:
+    checked = 0
+    for table in plan.tables_of("6j"):
+        for e in table.entries:
+            ref = wigner_6j(*map(_half, e.key))  # sympy.physics.wigner, exact
+            mine = sixj2(*e.key)
+            assert (mine.squared() == _signed_square(ref)) if ref else not mine, e.key
+            checked += 1
+    assert checked > 10
+
+
+def test_w_forms(plan) -> None:
+    checked = 0
+    for table in plan.tables_of("6j"):
+        for e in table.entries:
+            assert e.w_form is not None
+            (a, b, c, d, ee, f), w_sign = e.w_form
+            # W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f} -- Edmonds 1957, §6.2 (Racah 1942)
+            assert e.key == (a, b, ee, d, c, f)
+            assert w_sign == (-1 if ((a + b + c + d) // 2) % 2 else 1)
+            assert racah_w2(a, b, c, d, ee, f) == sixj2(*e.key) * w_sign
+            ref = racah(*map(_half, (a, b, c, d, ee, f)))  # sympy's Racah W, exact
+            assert _signed_square(ref) == w_sign * sixj2(*e.key).squared()
+            checked += 1
+    assert checked > 10
+
+
+def _ninej_in_range(hi: int) -> set[tuple[int, ...]]:
+    # triads in every row and column -- Edmonds 1957, §6.4
+    js = range(0, hi + 1)
+    rows = [(a, b, c) for a in js for b in js for c in js if _triangle(a, b, c)]
+    return {
+        r1 + r2 + r3
+        for r1 in rows for r2 in rows for r3 in rows
+        if all(_triangle(r1[k], r2[k], r3[k]) for k in range(3))
+    }
+
+
+def test_ninej_classes_partition_the_symbols_in_range(plan) -> None:
+    wanted = _ninej_in_range(2)
+    owner: dict[tuple[int, ...], tuple[int, ...]] = {}
+    for table in plan.tables_of("9j"):
+        for e in table.entries:
+            assert e.members[0] == (e.key, 1)
+            key_value = ninej2(*e.key)
+            for member, sign in e.members:
+                assert member not in owner, f"{member} in two classes"
+                owner[member] = e.key
+                # odd permutations of rows or columns give (-1)^(sum of all j); transposition
+                # leaves it unchanged -- Edmonds 1957, §6.4
+                assert ninej2(*member) == key_value * sign
+    assert not (wanted - owner.keys())
+    assert {e.key for t in plan.tables_of("9j") for e in t.entries} == {owner[s] for s in wanted}
+
+
+def test_ninej_values_agree_with_sympy(plan) -> None:
+    checked = 0
+    for table in plan.tables_of("9j"):
+        for e in table.entries:
+            ref = wigner_9j(*map(_half, e.key), prec=None)  # sympy.physics.wigner, exact
+            mine = ninej2(*e.key)
+            assert (mine.squared() == _signed_square(ref)) if ref else not mine, e.key
+            checked += 1
+    assert checked >= 10
+
+
+def test_symbol_pages_group_classes_by_largest_j(plan) -> None:
+    # each 6j/9j page holds the classes whose canonical (first) argument is its largest j
+    for family in ("6j", "9j"):
+        for table in plan.tables_of(family):
+            top = dict(table.params)["jmax"]
+            assert table.entries
+            for e in table.entries:
+                assert max(e.key) == top == e.key[0]
+
+
+# -- determinism ----------------------------------------------------------------------------
+_DIGEST_SCRIPT = """
+import hashlib, sys
+from tablegen.compute import compute_values
+from tablegen.plan import plan_site
+from tablegen.recipe import recipe_from_mapping
+from tablegen.render.data import canonical_values
+plan = plan_site(recipe_from_mapping({recipe!r}))
+print(hashlib.sha256(repr(plan).encode()).hexdigest())
+print(hashlib.sha256(canonical_values(compute_values(plan, jobs=1))).hexdigest())
+"""
+
+
+def test_plan_is_deterministic(plan) -> None:
+    again = plan_site(recipe_from_mapping(SMALL))
+    assert again == plan
+    assert repr(again) == repr(plan)
+
+
+def test_plan_and_values_ignore_the_hash_seed(plan) -> None:
+    # common practice, no source: output must not depend on PYTHONHASHSEED (set/dict order of str)
+    from tablegen.compute import compute_values
+    from tablegen.render.data import canonical_values
+
+    here = [
+        hashlib.sha256(repr(plan).encode()).hexdigest(),
+        hashlib.sha256(canonical_values(compute_values(plan, jobs=1))).hexdigest(),
+    ]
+    for seed in ("1", "2024"):
+        env = dict(os.environ, PYTHONHASHSEED=seed, PYTHONPATH=os.pathsep.join(filter(None, [str(REPO), os.environ.get("PYTHONPATH")])))
+        done = subprocess.run(
+            [sys.executable, "-c", _DIGEST_SCRIPT.format(recipe=SMALL)],
+            env=env, capture_output=True, text=True, timeout=120, check=True,
+        )
+        assert done.stdout.split() == here, seed
