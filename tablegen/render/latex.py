@@ -21,7 +21,7 @@ from ..compute import Shown, ValueBook
 from ..plan import Entry, SitePlan, Table
 from .env import latex_environment, tex_escape
 
-__all__ = ["render_latex", "DOCUMENT_PACKAGES", "FRAGMENT_PACKAGES", "tex_text", "tt_text"]
+__all__ = ["render_latex", "DOCUMENT_PACKAGES", "FRAGMENT_PACKAGES", "tex_text", "tt_text", "pdf_text"]
 
 #: What sheets and the booklet load (all from TeX's base and recommended sets).
 DOCUMENT_PACKAGES = ("amsmath", "array", "booktabs", "longtable", "geometry", "hyperref")
@@ -58,16 +58,26 @@ def tex_text(text: object) -> str:
     """User text (recipe title, notes) as LaTeX that prints it literally.
 
     The environment's ``tex`` filter escapes the specials; around it,
-    characters the default fonts lack become [U+XXXX] and ligature pairs
-    are split with ``{}`` so that "--" stays two hyphens.
+    characters the default fonts lack become [U+XXXX], ligature pairs are
+    split with ``{}`` so that "--" stays two hyphens, and $ is taken from the
+    text font (its \\$ would load a companion font that a basic TeX
+    installation only has as a bitmap, made on the fly).  User text is never
+    set in italics, where that font position holds a pound sign.
     """
-    return _split_ligatures(tex_escape(_printable(str(text))))
+    escaped = tex_escape(_printable(str(text))).replace("\\$", "\\char36{}")
+    return _split_ligatures(escaped)
+
+
+def pdf_text(text: object) -> str:
+    """User text for a PDF string (document title): escaped, kept as typed."""
+    return tex_escape(_printable(str(text)))
 
 
 # Characters that the typewriter font has at their ASCII places but that the
-# text escapes would take from a symbol font; \char prints them in place.
+# text escapes would take from a symbol or companion font; \char prints them
+# in place.
 # Straight quote and grave accent sit at 13 and 18 in that font.
-_TT_CHARS = {ch: ord(ch) for ch in "\\{}<>|^~_"} | {"'": 13, "`": 18}
+_TT_CHARS = {ch: ord(ch) for ch in "\\{}<>|^~_$"} | {"'": 13, "`": 18}
 
 
 def tt_text(text: object) -> str:
@@ -110,6 +120,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "recipe": plan.recipe,
         "text": tex_text,
         "tt": tt_text,
+        "pdf_text": pdf_text,
         "document_packages": DOCUMENT_PACKAGES,
         "fragment_packages": FRAGMENT_PACKAGES,
     }
