@@ -48,7 +48,10 @@ def _render(recipe) -> tuple[object, object, BuildMeta, dict[str, bytes], list[s
 
 @pytest.fixture(scope="module")
 def small():
-    recipe = recipe_from_mapping({"title": HOSTILE_TITLE, "notes": HOSTILE_NOTES, **SMALL})
+    # the other root style than the default recipe, so that both are compiled
+    recipe = recipe_from_mapping(
+        {"title": HOSTILE_TITLE, "notes": HOSTILE_NOTES, "latex_style": "rational", **SMALL}
+    )
     return _render(recipe)
 
 
@@ -252,7 +255,7 @@ def test_recipe_title_and_notes_are_escaped(small):
 
 def test_fragments_do_not_depend_on_user_text(small):
     plan, _, _, files, _ = small
-    plain = recipe_from_mapping({"title": "Plain", **SMALL})
+    plain = recipe_from_mapping({"title": "Plain", "latex_style": plan.recipe.latex_style, **SMALL})
     _, _, _, other, _ = _render(plain)
     for table in plan.tables:
         assert other[table.tex] == files[table.tex]

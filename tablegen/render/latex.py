@@ -48,6 +48,7 @@ _LIGATURE_PAIRS = ("--", "``", "''", "!`", "?`")
 
 
 def _printable(text: str) -> str:
+    """Text with every character the default fonts lack written as [U+XXXX]."""
     return "".join(
         ch if (" " <= ch <= "~") or ch in "\n\r\t" or ch in _PRINTABLE_EXTRA else f"[U+{ord(ch):04X}]"
         for ch in text
@@ -121,7 +122,6 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "text": tex_text,
         "tt": tt_text,
         "pdf_text": pdf_text,
-        "document_packages": DOCUMENT_PACKAGES,
         "fragment_packages": FRAGMENT_PACKAGES,
     }
     sheet = env.get_template("sheet.tex")
