@@ -97,6 +97,14 @@ def compute_values(
     return dict(zip(keys, results))
 
 
+def _worker_start() -> None:
+    """Workers die quietly when the pool ends them (the CLI's SIGTERM handler is not theirs)."""
+    import signal
+
+    signal.signal(signal.SIGTERM, signal.SIG_DFL)
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+
+
 def _run(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
     work = [(c, digits, style) for c in chunks]
     if jobs <= 1 or len(work) <= 1:
@@ -106,5 +114,5 @@ def _run(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
     import multiprocessing
 
     ctx = multiprocessing.get_context("fork" if hasattr(os, "fork") else "spawn")
-    with ctx.Pool(jobs) as pool:
+    with ctx.Pool(jobs, initializer=_worker_start) as pool:
         yield from pool.imap(_compute_chunk, work)

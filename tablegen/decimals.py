@@ -37,6 +37,14 @@ def _bracket(a: int, p: int, q: int, s: int) -> int:
     return 0
 
 
+_FAST_LEN = 1 << 3000
+
+
+def _log10_guess(p: int, q: int) -> int:
+    """floor(log10(sqrt(p/q))) within one, from bit lengths (for huge p, q)."""
+    return ((p.bit_length() - q.bit_length()) * 30103 // 100000) // 2
+
+
 def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
     """Decimal text of sign*sqrt(p/q) with `digits` significant digits."""
     if not isinstance(digits, int) or isinstance(digits, bool) or not 1 <= digits <= MAX_DIGITS:
@@ -45,31 +53,36 @@ def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
         return "0"
     import mpmath
 
-    with mpmath.workdps(digits + 12):
-        v = mpmath.sqrt(mpmath.mpf(p) / mpmath.mpf(q))
-        e10 = int(mpmath.floor(mpmath.log10(v)))
+    # first guess of the decimal exponent from the integers' lengths; the exact
+    # check below corrects it by one either way if needed
+    e10 = (len(int_text(p)) - len(int_text(q))) // 2 if max(p, q) < _FAST_LEN else _log10_guess(p, q)
+    low, high = 10 ** (digits - 1), 10**digits
+    # settle the exponent exactly: low <= sqrt(p/q) * 10**s < high, s = digits-1-e10
+    for _ in range(8):
         s = digits - 1 - e10
-        a = int(mpmath.nint(v * mpmath.mpf(10) ** s))
-    # exact confirmation; also fixes e10 when the estimate was off by one
-    for _ in range(64):
-        if a < 10 ** (digits - 1):
-            e10 -= 1
-            s += 1
-            a *= 10
-            continue
-        where = _bracket(a, p, q, s)
-        if where < 0:
-            a -= 1
-        elif where > 0:
-            a += 1
-        elif a >= 10**digits:
+        num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
+        if num >= high * high * den:
             e10 += 1
-            s -= 1
-            a = (a + 5) // 10  # only reached when a == 10**digits exactly
+        elif num < low * low * den:
+            e10 -= 1
         else:
             break
+    with mpmath.workdps(digits + 12):
+        v = mpmath.sqrt(mpmath.mpf(p) / mpmath.mpf(q))
+        a = int(mpmath.nint(v * mpmath.mpf(10) ** (digits - 1 - e10)))
+    s = digits - 1 - e10
+    # exact confirmation of the rounding (and repair, should mpmath ever be off)
+    for _ in range(64):
+        where = _bracket(a, p, q, s)
+        if where == 0:
+            break
+        a += where
     else:  # pragma: no cover - would mean mpmath was wildly off
         raise ArithmeticError("decimal rounding did not converge")
+    if a == high:  # rounding carried into the next power of ten
+        a, e10 = low, e10 + 1
+    elif a < low:  # pragma: no cover - repaired below a power of ten
+        a, e10 = high - 1, e10 - 1
     return _format(sign, int_text(a), e10)
 
 

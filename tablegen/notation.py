@@ -7,7 +7,12 @@ it.  No markup here: renderers build HTML, MathML and LaTeX themselves.
 
 from __future__ import annotations
 
-from .spins import half_text
+from functools import lru_cache
+
+from . import spins
+
+#: spins.half_text, memoised: renderers call it for every quantum number they print
+half_text = lru_cache(maxsize=8192)(spins.half_text)
 
 __all__ = ["half_text", "symbol_text"]
 

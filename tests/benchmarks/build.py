@@ -29,7 +29,7 @@ REPO = Path(__file__).resolve().parents[2]
 SIZES = {
     "small": "[cg]\nmax_j = 2\n[3j]\nmax_j = 2\n[6j]\nmax_j = 2\n[9j]\nmax_j = 1\n",
     "medium": "[cg]\nmax_j = 4\n[3j]\nmax_j = 4\n[6j]\nmax_j = 4\n[9j]\nmax_j = 2\n",
-    "large": "[cg]\nmax_j = 6\n[3j]\nmax_j = 6\n[6j]\nmax_j = 6\n[9j]\nmax_j = 5/2\n",
+    "large": "[cg]\nmax_j = 6\n[3j]\nmax_j = 6\n[6j]\nmax_j = 6\n[9j]\nmax_j = \"5/2\"\n",
 }
 CLASSIC = "[cg]\nmax_j = 8\n[3j]\nmax_j = 8\n[6j]\nmax_j = 8\n[9j]\nmax_j = 3\n"
 
