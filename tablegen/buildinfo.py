@@ -9,6 +9,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from .latex_escape import tex_escape
+
 __all__ = ["BuildMeta", "bibtex", "plain_citation"]
 
 
@@ -40,7 +42,8 @@ def _ranges(meta: BuildMeta) -> str:
 
 def bibtex(meta: BuildMeta) -> str:
     """A BibTeX @misc entry naming the tool version, the recipe and the data digest."""
-    title = meta.title.replace("{", "").replace("}", "")
+    # BibTeX balances braces itself and passes the rest to LaTeX: drop braces, escape the rest
+    title = tex_escape(meta.title.replace("{", "").replace("}", ""))
     return (
         f"@misc{{{meta.citation_key},\n"
         f"  title        = {{{{{title}}}: exact angular-momentum coupling coefficients}},\n"

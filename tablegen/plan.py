@@ -103,6 +103,10 @@ class Table:
     def entries(self) -> tuple[Entry, ...]:
         return tuple(e for s in self.sections for e in s.entries)
 
+    def param(self, name: str) -> int:
+        """A doubled parameter of the table by name (e.g. "j1", "jmax")."""
+        return dict(self.params)[name]
+
 
 @dataclass(frozen=True)
 class Page:
@@ -401,8 +405,8 @@ def _symbol_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]
                 w_form = ((a, b, c, d, e, g), -1 if ((a + b + c + d) // 2) & 1 else 1)
             entries.append(Entry(canon, symbol_anchor(canon, row), None, members, w_form))
         tid = f"{family}-jmax-{file_code(top)}"
-        label = "6j symbols" if family == "6j" else "9j symbols"
-        title = f"{label} whose largest j is {_h(top)}"
+        label, forms = ("6j", 144) if family == "6j" else ("9j", 72)
+        title = f"{label} classes whose largest j, over all {forms} equivalent forms, is {_h(top)}"
         section = Section(title=title, anchor=f"jmax={_h(top)}", entries=tuple(entries))
         tables.append(
             Table(

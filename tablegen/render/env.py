@@ -14,41 +14,10 @@ from pathlib import Path
 
 import jinja2
 
+from ..latex_escape import tex_escape
 from ..notation import half_text
 
 __all__ = ["templates_dir", "html_environment", "latex_environment", "tex_escape"]
-
-_TEX_SPECIALS = {
-    "\\": r"\textbackslash{}",
-    "{": r"\{",
-    "}": r"\}",
-    "#": r"\#",
-    "$": r"\$",
-    "%": r"\%",
-    "&": r"\&",
-    "_": r"\_",
-    "^": r"\textasciicircum{}",
-    "~": r"\textasciitilde{}",
-    "<": r"\textless{}",
-    ">": r"\textgreater{}",
-    "|": r"\textbar{}",
-}
-
-
-def tex_escape(text: object) -> str:
-    """Plain text made safe for LaTeX: specials escaped, control characters dropped."""
-    out = []
-    for ch in str(text):
-        if ch in _TEX_SPECIALS:
-            out.append(_TEX_SPECIALS[ch])
-        elif ch in "\n\r\t":
-            out.append(" ")
-        elif ord(ch) < 32 or ord(ch) == 127:
-            continue
-        else:
-            out.append(ch)
-    return "".join(out)
-
 
 FILTERS = {
     "half": half_text,  # doubled int -> '3/2'
