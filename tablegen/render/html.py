@@ -57,11 +57,6 @@ def relative_url(from_page: str, target: str) -> str:
 
 
 # -- small formatting helpers -------------------------------------------------
-def _tex_ket(tj: int, tm: int) -> str:
-    """|j,m> in LaTeX, half-integers written 3/2 as usual inside kets."""
-    return f"|{half_text(tj)},{half_text(tm)}\\rangle"
-
-
 def _dash(text: str) -> str:
     """Plain text with typographic minus signs."""
     return text.replace("-", "−")
@@ -96,7 +91,6 @@ class Row:
     cells: tuple[Cell | None, ...]
     ket: Markup | None = None  # CG: MathML of |J M>
     terms: tuple[Term, ...] = ()
-    ket_tex: str = ""
 
 
 @dataclass(frozen=True)
@@ -188,7 +182,6 @@ def _cg_rows(site: _Site, page: Page, section: Section) -> list[Row]:
     for r, tM in enumerate(section.rows):
         cells = []
         terms = []
-        tex_terms = []
         for entry in section.grid[r]:
             if entry is None:
                 cells.append(None)
@@ -204,9 +197,6 @@ def _cg_rows(site: _Site, page: Page, section: Section) -> list[Row]:
             kets = f"<mtext>{mathml.ket_text(tj1, tm1)}{mathml.ket_text(tj2, tm2)}</mtext>"
             coeff = "" if unit else mathml.value_inner(s.tex_abs)
             terms.append(Term(sign, Markup(coeff), Markup(kets)))
-            tex_sign = ("" if first else " + ") if s.value.sign > 0 else (" - " if not first else "-")
-            tex_coeff = "" if unit else s.tex_abs + "\\,"
-            tex_terms.append(f"{tex_sign}{tex_coeff}{_tex_ket(tj1, tm1)}{_tex_ket(tj2, tm2)}")
         tJ = section.params[0][1]
         rows.append(
             Row(
@@ -215,7 +205,6 @@ def _cg_rows(site: _Site, page: Page, section: Section) -> list[Row]:
                 cells=tuple(cells),
                 ket=Markup(f"<mtext>{mathml.ket_text(tJ, tM)}</mtext>"),
                 terms=tuple(terms),
-                ket_tex=f"{_tex_ket(tJ, tM)} = " + "".join(tex_terms),
             )
         )
     return rows

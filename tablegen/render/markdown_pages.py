@@ -4,12 +4,14 @@ The texts live in templates/text/*.md.  Formulas are written in LaTeX between
 ``$$ … $$`` (displayed, on lines of their own) or ``$ … $`` (inline); they are
 swapped for placeholders before Markdown runs and replaced afterwards by the
 MathML that mathml.tex_to_mathml writes, so the pages need neither a script
-nor the network.  ``{{name}}`` inserts a build fact (digits, LaTeX style).
+nor the network.  A displayed formula keeps its LaTeX in data-t, for the copy
+button.  ``{{name}}`` inserts a build fact (digits, LaTeX style).
 """
 
 from __future__ import annotations
 
 import re
+from html import escape
 
 import markdown
 
@@ -52,7 +54,9 @@ def render_markdown(text: str, facts: dict[str, str] | None = None) -> str:
     def put(m: re.Match) -> str:
         tex, display = formulas[int(m.group(2))]
         out = mathml.tex_to_mathml(tex, display)
-        return f'<div class="eq">{out}</div>' if display else out
+        if not display:
+            return out
+        return f'<div class="eq" data-t="{escape(tex, quote=True)}">{out}</div>'
 
     html = re.sub(r"<p>zzmath(D)(\d+)zz</p>", put, html)
     html = re.sub(r"zzmath([DI])(\d+)zz", put, html)

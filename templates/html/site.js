@@ -59,6 +59,31 @@
     return b;
   }
 
+  // The LaTeX of a coupled state |J M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
+  // made from the LaTeX of the coefficients in its grid row (each cell's data-t).
+  function ketLatex(li) {
+    var state = /^ket:J=([^,]+),M=(.+)$/.exec(li.id);
+    var link = doc.querySelector('a[href="#' + li.id + '"]');
+    var row = link.closest("tr");
+    var j = row.closest("table").getAttribute("data-j").split(",");
+    var tM = doubled(state[2], "M");
+    var out = "|" + state[1] + "," + state[2] + "\\rangle = ";
+    var first = true;
+    var cells = row.querySelectorAll("td[data-t]");
+    for (var i = 0; i < cells.length; i++) {
+      var tex = cells[i].getAttribute("data-t");
+      if (tex === "0") continue;
+      var negative = tex.charAt(0) === "-";
+      var size = negative ? tex.slice(1) : tex;
+      var tm1 = doubled(/,m1=(.+)$/.exec(cells[i].id)[1], "m1");
+      out += first ? (negative ? "-" : "") : (negative ? " - " : " + ");
+      out += (size === "1" ? "" : size + "\\,") +
+        "|" + j[0] + "," + half(tm1) + "\\rangle|" + j[1] + "," + half(tM - tm1) + "\\rangle";
+      first = false;
+    }
+    return out;
+  }
+
   function addCopyButtons() {
     var i, el, nodes = doc.querySelectorAll("[data-t]");
     for (i = 0; i < nodes.length; i++) {
@@ -69,6 +94,12 @@
       var b = copyButton(isCode ? "Copy" : "TeX", isCode ? "Copy" : "Copy LaTeX: " + tex,
         (function (t) { return function () { return t; }; })(tex));
       if (isCode) el.parentNode.appendChild(b); else el.appendChild(b);
+    }
+    nodes = doc.querySelectorAll(".kets li[id]");
+    for (i = 0; i < nodes.length; i++) {
+      el = nodes[i];
+      el.appendChild(copyButton("TeX", "Copy this state's expansion as LaTeX",
+        (function (li) { return function () { return ketLatex(li); }; })(el)));
     }
     nodes = doc.querySelectorAll("pre.copy");
     for (i = 0; i < nodes.length; i++) {
@@ -365,17 +396,27 @@
     try { return JSON.parse(sessionStorage.getItem(NOTE_KEY) || "null"); } catch (e) { return null; }
   }
 
+  // The note about a jump (sign, canonical form) floats at the bottom of the
+  // window, where it is seen next to the highlighted value, until closed.
   function showBanner(text) {
     var old = doc.getElementById("jump-note");
     if (old) old.parentNode.removeChild(old);
     if (!text) return;
+    var note = doc.createElement("div");
+    note.id = "jump-note";
+    note.className = "banner";
+    note.setAttribute("role", "status");
     var p = doc.createElement("p");
-    p.id = "jump-note";
-    p.className = "banner";
-    p.setAttribute("role", "status");
     p.textContent = text;
-    var main = doc.querySelector("main");
-    if (main) main.insertBefore(p, main.firstChild);
+    var close = doc.createElement("button");
+    close.type = "button";
+    close.textContent = "\u00d7";
+    close.title = "Close";
+    close.setAttribute("aria-label", "Close");
+    close.addEventListener("click", function () { note.parentNode.removeChild(note); });
+    note.appendChild(p);
+    note.appendChild(close);
+    doc.body.appendChild(note);
   }
 
   function buildBox(box) {
@@ -477,14 +518,17 @@
       }
     });
 
+    // Start with the family of this page; keep the last typed numbers if they fit it.
     var state = recall();
-    if (state && FAMILIES[state.fam] && BUILD.families[FAMILIES[state.fam].data]) {
-      select.value = state.fam;
-      layout(state.values);
-      if (state.note && state.to === HERE + location.hash) showBanner(state.note);
-    } else {
-      layout(null);
+    var kind = doc.body.className;
+    var fam = FAMILIES[kind] && BUILD.families[kind] ? kind : null;
+    if (state && FAMILIES[state.fam] && BUILD.families[FAMILIES[state.fam].data] &&
+        (!fam || FAMILIES[state.fam].data === kind)) {
+      fam = state.fam;
     }
+    if (fam) select.value = fam;
+    layout(state && state.fam === select.value ? state.values : null);
+    if (state && state.note && state.to === HERE + decodeURIComponent(location.hash)) showBanner(state.note);
     box.hidden = false;
 
     // "/" focuses the box from anywhere on the page.

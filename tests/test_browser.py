@@ -1,0 +1,298 @@
+"""The built pages in a real browser, opened from disk as a reader would.
+
+Drives Debian's /usr/bin/chromium through Python playwright (never a
+downloaded browser).  Without them the tests are skipped with a reason, except
+in CI (CI set), where they fail.  Expected addresses come from the Python
+side (plan names, symmetry.py canonical forms), so the script's own
+reconstruction of names and canonical forms is checked against them.
+"""
+
+from __future__ import annotations
+
+import os
+from pathlib import Path
+
+import pytest
+
+from tablegen.buildinfo import BuildMeta
+from tablegen.compute import compute_values
+from tablegen.plan import (
+    cg_anchor,
+    cg_page_path,
+    ninej_page_path,
+    plan_site,
+    sixj_page_path,
+    symbol_anchor,
+    threej_anchor,
+    threej_page_path,
+)
+from tablegen.recipe import recipe_from_mapping
+from tablegen.render.data import render_data
+from tablegen.render.html import render_html
+from tablegen.symmetry import ninej_canonical, sixj_canonical
+
+CHROMIUM = "/usr/bin/chromium"
+ARGS = [
+    "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+    "--disable-background-networking", "--disable-component-update", "--disable-sync",
+]
+SMALL = {"cg": {"max_j": 1}, "3j": {"max_j": 1}, "6j": {"max_j": 1}, "9j": {"max_j": 1}}
+
+
+def _unavailable(reason: str) -> None:
+    if os.environ.get("CI"):
+        pytest.fail(f"browser test cannot run in CI: {reason}")
+    pytest.skip(f"BROWSER TESTS SKIPPED: {reason} (install Debian's chromium and `pip install playwright`)")
+
+
+@pytest.fixture(scope="module")
+def site(tmp_path_factory):
+    """A small build written to disk: HTML pages, assets and data files."""
+    recipe = recipe_from_mapping(SMALL)
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = BuildMeta("tablegen", "0.1.0", "cd" * 32, recipe.toml_text(), recipe.title, (("cg", 1),))
+    root = tmp_path_factory.mktemp("browser") / "site"
+    outputs = list(render_html(plan, book, meta)) + list(render_data(plan, book, meta, b"values\n"))
+    for path, data in outputs:
+        target = root / path
+        target.parent.mkdir(parents=True, exist_ok=True)
+        target.write_bytes(data)
+    return root, plan, book
+
+
+@pytest.fixture(scope="module")
+def browser():
+    if not Path(CHROMIUM).exists():
+        _unavailable(f"{CHROMIUM} not found")
+    try:
+        from playwright.sync_api import sync_playwright
+    except ImportError:
+        _unavailable("Python playwright is not installed")
+    with sync_playwright() as p:
+        b = p.chromium.launch(executable_path=CHROMIUM, args=ARGS)
+        yield b
+        b.close()
+
+
+class Watched:
+    """A page whose failed requests, console errors and script errors are recorded."""
+
+    def __init__(self, browser, root: Path, clipboard: bool = False) -> None:
+        self.context = browser.new_context(viewport={"width": 1280, "height": 800})
+        if clipboard:
+            self.context.grant_permissions(["clipboard-read", "clipboard-write"])
+        self.page = self.context.new_page()
+        self.root = root
+        self.problems: list[str] = []
+        self.page.on("requestfailed", lambda r: self.problems.append(f"failed request {r.url}"))
+        self.page.on("pageerror", lambda e: self.problems.append(f"script error {e}"))
+        self.page.on("console", lambda m: m.type == "error" and self.problems.append(f"console {m.text}"))
+
+    def open(self, path: str) -> None:
+        self.page.goto((self.root / path).as_uri())
+        self.page.wait_for_load_state("load")
+
+    def close(self) -> None:
+        self.context.close()
+
+
+@pytest.fixture
+def tab(browser, site):
+    w = Watched(browser, site[0])
+    yield w
+    w.close()
+
+
+PAGES = ["index.html", "cg/1x0.5.html", "3j/0.5x1.html", "6j/jmax-1.html", "9j/jmax-1.html",
+         "conventions.html", "methods.html", "cite.html"]
+
+
+@pytest.mark.parametrize("path", PAGES)
+def test_page_loads_without_errors_from_disk(tab, path):
+    tab.open(path)
+    page = tab.page
+    assert page.url.startswith("file://")
+    assert page.locator("#jump form").count() == 1, "the jump box was not built"
+    assert page.locator("#jump").is_visible()
+    assert page.evaluate("getComputedStyle(document.body).fontFamily").startswith("system-ui")
+    if path != "index.html":
+        assert page.locator("button.cp").count() >= 1, "no copy buttons were added"
+    assert tab.problems == []
+
+
+def test_value_mathml_is_laid_out(tab, site):
+    # a MathML-capable browser gives the formula a real box (W3C MathML Core)
+    tab.open("cg/1x0.5.html")
+    box = tab.page.locator('td[id="J=3/2,M=1/2,m1=1"] > math').bounding_box()
+    assert box and box["width"] > 10 and box["height"] > 10
+    root_box = tab.page.locator('td[id="J=3/2,M=1/2,m1=1"] msqrt').bounding_box()
+    assert root_box and root_box["width"] > 5 and root_box["height"] > 5
+    tab.open("6j/jmax-1.html")
+    sym = tab.page.locator("td.sym > math").first.bounding_box()
+    assert sym and sym["height"] > 20  # a two-row array
+    assert tab.problems == []
+
+
+def _type(page, family: str, values: list[str]) -> None:
+    page.select_option("#jump select", family)
+    inputs = page.locator("#jump input")
+    assert inputs.count() == len(values)
+    for i, v in enumerate(values):
+        inputs.nth(i).fill(v)
+    page.locator("#jump button[type=submit]").click()
+
+
+def _landed(page, path: str, anchor: str) -> None:
+    page.wait_for_function(
+        "([p, a]) => decodeURIComponent(location.pathname).endsWith('/' + p) && "
+        "decodeURIComponent(location.hash) === '#' + a",
+        arg=[path, anchor],
+        timeout=5000,
+    )
+    assert page.evaluate("document.querySelector(':target') && document.querySelector(':target').id") == anchor
+    assert page.locator(f'[id="{anchor}"]').count() == 1
+
+
+def _sixj_expected(key):
+    canon = sixj_canonical(*key)[0]
+    return sixj_page_path(canon[0]), symbol_anchor(canon, 3)
+
+
+CASES = [
+    # <1 -1; 1/2 1/2 | 1/2 -1/2>, typed with a decimal and a fraction
+    ("index.html", "cg", ["1", "-1", "0.5", "1/2", "1/2", "-0.5"],
+     cg_page_path(2, 1), cg_anchor(1, -1, -2)),
+    # (1/2 1 3/2; -1/2 1 -1/2) from a page in a subfolder, with a typographic minus
+    ("3j/0x0.html", "3j", ["1/2", "1", "1.5", "\u22121/2", "1", "-1/2"],
+     threej_page_path(1, 2), threej_anchor(3, -1, -1)),
+]
+
+
+@pytest.mark.parametrize("start, family, values, path, anchor", CASES)
+def test_jump_box_lands_on_cg_and_3j_cells(tab, start, family, values, path, anchor):
+    tab.open(start)
+    _type(tab.page, family, values)
+    _landed(tab.page, path, anchor)
+    assert tab.problems == []
+
+
+def test_jump_box_finds_a_6j_from_a_non_canonical_form(tab):
+    key = (1, 1, 2, 1, 1, 0)  # {1/2 1/2 1; 1/2 1/2 0}
+    path, anchor = _sixj_expected(key)
+    assert anchor != symbol_anchor(key, 3), "the test needs a non-canonical form"
+    tab.open("cg/0x0.html")
+    _type(tab.page, "6j", ["1/2", "1/2", "1", "1/2", "1/2", "0"])
+    _landed(tab.page, path, anchor)
+    note = tab.page.locator("#jump-note").text_content()
+    assert "canonical form" in note
+    assert tab.problems == []
+
+
+def test_jump_box_finds_a_racah_w_and_tells_the_sign(tab):
+    # W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f} (Racah 1942; Edmonds 1957, eq. 6.2.13 — from memory)
+    a, b, c, d, e, f = 1, 1, 1, 1, 2, 0  # W(1/2 1/2 1/2 1/2; 1 0)
+    path, anchor = _sixj_expected((a, b, e, d, c, f))
+    tab.open("index.html")
+    _type(tab.page, "w", ["1/2", "1/2", "1/2", "1/2", "1", "0"])
+    _landed(tab.page, path, anchor)
+    note = tab.page.locator("#jump-note").text_content()
+    assert note.startswith("W(1/2 1/2 1/2 1/2; 1 0) = {1/2 1/2 1; 1/2 1/2 0}")  # a+b+c+d = 2: sign +1
+    tab.page.goto((tab.root / "index.html").as_uri())
+    _type(tab.page, "w", ["1", "1/2", "1/2", "1", "1/2", "1/2"])  # a+b+c+d = 3: sign -1
+    path, anchor = _sixj_expected((2, 1, 1, 2, 1, 1))
+    _landed(tab.page, path, anchor)
+    assert "= \u22121 \u00d7 {1 1/2 1/2; 1 1/2 1/2}" in tab.page.locator("#jump-note").text_content()
+    assert tab.problems == []
+
+
+def test_jump_box_finds_a_9j_from_a_non_canonical_form(tab):
+    key = (1, 1, 2, 1, 1, 0, 2, 0, 2)  # {1/2 1/2 1; 1/2 1/2 0; 1 0 1}
+    canon, sign = ninej_canonical(*key)
+    assert canon != key, "the test needs a non-canonical form"
+    tab.open("6j/jmax-1.html")
+    _type(tab.page, "9j", ["0.5", "1/2", "1", "1/2", "0.5", "0", "1", "0", "1"])
+    _landed(tab.page, ninej_page_path(canon[0]), symbol_anchor(canon, 3))
+    note = tab.page.locator("#jump-note").text_content()
+    assert ("\u22121 \u00d7" in note) == (sign < 0)
+    assert tab.problems == []
+
+
+@pytest.mark.parametrize(
+    "family, values, message",
+    [
+        ("cg", ["1", "1", "1", "0", "1", "0"], "do not add up"),  # m1 + m2 != M
+        ("cg", ["1", "0", "1", "0", "3", "0"], "triangle rule"),  # J > j1 + j2
+        ("cg", ["2", "0", "1", "0", "1", "0"], "range"),  # j1 beyond this build
+        ("3j", ["1", "1", "1", "1", "1", "1"], "do not add up"),
+        ("6j", ["1", "1", "1", "1", "1", "3"], "triangle rule"),
+        ("9j", ["1", "1", "1", "1", "1", "1", "1", "1", "1/2"], "integer"),
+        ("cg", ["1", "1/2", "1", "0", "1", "0"], "must be an integer"),
+        ("cg", ["one", "0", "1", "0", "1", "0"], "not a number"),
+        ("3j", ["1/3", "1", "1", "0", "0", "0"], "multiple of 1/2"),
+    ],
+)
+def test_jump_box_explains_instead_of_navigating(tab, family, values, message):
+    tab.open("index.html")
+    before = tab.page.url
+    _type(tab.page, family, values)
+    out = tab.page.locator("#jump output")
+    out.wait_for(state="visible")
+    assert message in out.text_content()
+    assert tab.page.url == before
+    assert tab.problems == []
+
+
+def _h(t: int) -> str:
+    return str(t // 2) if t % 2 == 0 else f"{t}/2"
+
+
+def _ket_latex(section, r: int, book) -> str:
+    """|J,M> = c1 |j1,m1>|j2,m2> + ..., written independently of the site script."""
+    tJ, tM = dict(section.params)["J"], section.rows[r]
+    text = f"|{_h(tJ)},{_h(tM)}\\rangle = "
+    first = True
+    for entry in section.grid[r]:
+        if entry is None or not book[("cg", entry.key)].value:
+            continue
+        shown = book[("cg", entry.key)]
+        tj1, tm1, tj2, tm2, _, _ = entry.key
+        negative = shown.value < 0
+        text += ("-" if negative else "") if first else (" - " if negative else " + ")
+        text += "" if shown.tex_abs == "1" else shown.tex_abs + "\\,"
+        text += f"|{_h(tj1)},{_h(tm1)}\\rangle|{_h(tj2)},{_h(tm2)}\\rangle"
+        first = False
+    return text
+
+
+def test_copy_buttons_copy_the_latex(browser, site):
+    root, plan, book = site
+    w = Watched(browser, root, clipboard=True)
+    try:
+        table = plan.table("cg-1x0.5")
+        entry = table.sections[0].grid[1][0]  # J = 3/2, M = 1/2, m1 = 1
+        w.open(table.page)
+        cell = w.page.locator(f'td[id="{entry.anchor}"]')
+        cell.hover()
+        cell.locator("button.cp").click()
+        assert w.page.evaluate("navigator.clipboard.readText()") == book[("cg", entry.key)].tex
+
+        for pair in (plan.table("cg-1x1"), table):  # every state |J M> of two pages
+            w.open(pair.page)
+            for section in pair.sections:
+                for r, anchor in enumerate(section.row_anchors):
+                    w.page.locator(f'li[id="{anchor}"] button.cp').click()
+                    assert w.page.evaluate("navigator.clipboard.readText()") == _ket_latex(section, r, book), anchor
+
+        six = plan.tables_of("6j")[-1]
+        entry = six.entries[-1]
+        w.open(six.page)
+        w.page.locator(f'tr[id="{entry.anchor}"] td[data-t] button.cp').first.click()
+        assert w.page.evaluate("navigator.clipboard.readText()") == book[("6j", entry.key)].tex
+
+        w.open("cite.html")
+        w.page.locator("pre.copy + button.cp").first.click()
+        assert w.page.evaluate("navigator.clipboard.readText()").startswith("@misc{tablegen-cdcdcdcd,")
+        assert w.problems == []
+    finally:
+        w.close()

@@ -1,0 +1,369 @@
+"""HTML pages of a small build: completeness, anchors, links, escaping, values, determinism.
+
+Pages are parsed with the standard library's html.parser, the way any HTML
+consumer would see them (the HTML Living Standard's rules for ids and links).
+"""
+
+from __future__ import annotations
+
+import json
+import posixpath
+import re
+from html.parser import HTMLParser
+from urllib.parse import urlsplit
+
+import pytest
+
+from tablegen.buildinfo import BuildMeta
+from tablegen.compute import compute_values
+from tablegen.plan import plan_site, symbol_anchor
+from tablegen.recipe import recipe_from_mapping
+from tablegen.render.data import render_data
+from tablegen.render.html import ASSETS, relative_url, render_html
+from tablegen.symmetry import ninej_canonical, sixj_canonical
+
+HOSTILE_TITLE = "Tables <script>alert('t')</script> & more"
+HOSTILE_NOTES = 'Line one <img src=x onerror="alert(1)"> & \'quoted\'\nline two </p><script>bad()</script>'
+SMALL = {
+    "title": HOSTILE_TITLE,
+    "notes": HOSTILE_NOTES,
+    "cg": {"max_j": 1},
+    "3j": {"max_j": 1},
+    "6j": {"max_j": 1},
+    "9j": {"max_j": 1},
+}
+# files at the site root written by the data renderer and linked from pages
+ROOT_DATA = {"values.txt", "recipe.toml", "cite.bib"}
+
+
+class _Page(HTMLParser):
+    """Collects ids, links, data-t attributes and the text of <math> elements."""
+
+    def __init__(self) -> None:
+        super().__init__(convert_charrefs=True)
+        self.ids: list[str] = []
+        self.links: list[tuple[str, str]] = []  # (attribute, value)
+        self.tex: dict[str, str] = {}
+        self.math_in: dict[str, int] = {}
+        self.cell_links: dict[str, list[str]] = {}
+        self._stack: list[str | None] = []  # id of the enclosing element with an id
+        self.scripts_inline = 0
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        if "id" in a:
+            self.ids.append(a["id"])
+            if "data-t" in a:
+                self.tex[a["id"]] = a["data-t"]
+        for name in ("href", "src", "action"):
+            if name in a and a[name] is not None:
+                self.links.append((name, a[name]))
+        current = self._stack[-1] if self._stack else None
+        if tag == "math" and current is not None:
+            self.math_in[current] = self.math_in.get(current, 0) + 1
+        if tag == "a" and current is not None and "href" in a:
+            self.cell_links.setdefault(current, []).append(a["href"])
+        if tag == "script" and "src" not in a:
+            self.scripts_inline += 1
+        if tag in ("td", "tr", "li"):
+            self._stack.append(a.get("id", current))
+
+    def handle_endtag(self, tag):
+        if tag in ("td", "tr", "li") and self._stack:
+            self._stack.pop()
+
+
+def _parse(data: bytes) -> _Page:
+    p = _Page()
+    p.feed(data.decode("utf-8"))
+    p.close()
+    return p
+
+
+def _meta(recipe, plan) -> BuildMeta:
+    counts = tuple((f.family, sum(len(t.entries) for t in plan.tables_of(f.family))) for f in recipe.families)
+    return BuildMeta("tablegen", "0.1.0", "ab" * 32, recipe.toml_text(), recipe.title, counts)
+
+
+@pytest.fixture(scope="module")
+def built():
+    recipe = recipe_from_mapping(SMALL)
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = _meta(recipe, plan)
+    files = dict(render_html(plan, book, meta))
+    return recipe, plan, book, meta, files
+
+
+@pytest.fixture(scope="module")
+def parsed(built):
+    files = built[4]
+    return {path: _parse(data) for path, data in files.items() if path.endswith(".html")}
+
+
+def test_every_planned_page_and_the_assets_are_written(built):
+    _, plan, _, _, files = built
+    assert sorted(files) == sorted([p.path for p in plan.pages] + list(ASSETS))
+    assert all(isinstance(v, bytes) and v for v in files.values())
+
+
+def test_every_anchor_is_an_id_exactly_once_on_its_page(built, parsed):
+    _, plan, _, _, _ = built
+    for table in plan.tables:
+        ids = parsed[table.page].ids
+        wanted = [s.anchor for s in table.sections]
+        wanted += [e.anchor for e in table.entries]
+        wanted += [a for s in table.sections for a in s.row_anchors]
+        for anchor in wanted:
+            assert ids.count(anchor) == 1, (table.page, anchor, ids.count(anchor))
+    for path, page in parsed.items():
+        dupes = {i for i in page.ids if page.ids.count(i) > 1}
+        assert not dupes, (path, dupes)
+
+
+def _known_files(plan, book, meta, files) -> set[str]:
+    known = set(files)
+    known |= {path for path, _ in render_data(plan, book, meta, b"")}
+    known |= {t.tex for t in plan.tables} | {t.tex_sheet for t in plan.tables} | {plan.booklet}
+    return known
+
+
+def test_every_internal_link_resolves_to_a_file_and_an_id(built, parsed):
+    # HTML Living Standard: a fragment names the element whose id equals it exactly
+    _, plan, book, meta, files = built
+    known = _known_files(plan, book, meta, files)
+    assert ROOT_DATA <= known
+    checked = 0
+    for path, page in parsed.items():
+        for attr, link in page.links:
+            parts = urlsplit(link)
+            assert not parts.scheme and not parts.netloc, f"{path}: external {attr}={link}"
+            assert not link.startswith("//"), f"{path}: protocol-relative {link}"
+            target = posixpath.normpath(posixpath.join(posixpath.dirname(path), parts.path)) if parts.path else path
+            assert target in known, f"{path}: {attr}={link} points at a missing file {target}"
+            if parts.fragment:
+                assert target.endswith(".html"), f"{path}: anchor into a non-page {link}"
+                assert parts.fragment in parsed[target].ids, f"{path}: {link} has no element with that id"
+            checked += 1
+    assert checked > 500
+
+
+def test_no_external_resources_anywhere(built):
+    files = built[4]
+    for path, data in files.items():
+        text = data.decode("utf-8")
+        for m in re.finditer(r"""(?:href|src|action)\s*=\s*["']?([^"'\s>]+)""", text):
+            assert not re.match(r"(?i)(https?:|//|ftp:|data:)", m.group(1)), (path, m.group(1))
+        assert "@import" not in text and "url(" not in text, path
+        assert not re.search(r"(?i)https?://", text.replace("http://www.w3.org/1998/Math/MathML", "")), path
+
+
+def test_title_and_notes_are_escaped(built, parsed):
+    files = built[4]
+    index = files["index.html"].decode("utf-8")
+    assert "<script>alert" not in index and "<img" not in index and "<script>bad" not in index
+    assert "Tables &lt;script&gt;alert(&#39;t&#39;)&lt;/script&gt; &amp; more" in index
+    assert "&lt;img src=x onerror=&#34;alert(1)&#34;&gt; &amp;" in index
+    assert "&lt;/p&gt;&lt;script&gt;bad()&lt;/script&gt;" in index
+    for path, data in files.items():
+        if path.endswith(".html"):
+            assert "<script>alert" not in data.decode("utf-8"), path
+            assert parsed[path].scripts_inline == 0, path
+
+
+def test_every_value_cell_has_mathml_and_its_latex(built, parsed):
+    _, plan, book, _, _ = built
+    for table in plan.tables:
+        page = parsed[table.page]
+        for entry in table.entries:
+            shown = book[(table.family, entry.key)]
+            assert page.math_in.get(entry.anchor, 0) >= 1, (table.page, entry.anchor)
+            if table.family in ("cg", "3j"):
+                assert page.tex[entry.anchor] == shown.tex, (table.page, entry.anchor)
+
+
+def test_value_text_shows_the_decimal_and_the_exact_form(built):
+    _, plan, book, _, files = built
+    for table in plan.tables:
+        text = files[table.page].decode("utf-8")
+        for entry in table.entries:
+            shown = book[(table.family, entry.key)]
+            start = text.index(f'id="{entry.anchor}"')
+            chunk = text[start : start + 2500]
+            if shown.value:
+                assert shown.decimal in chunk, (table.page, entry.anchor)
+            else:
+                assert "<mn>0</mn>" in chunk
+
+
+def test_cg_and_3j_cells_link_to_their_twins(built, parsed):
+    _, plan, _, _, _ = built
+    count = 0
+    for table in plan.tables:
+        if table.family not in ("cg", "3j"):
+            continue
+        page = parsed[table.page]
+        for entry in table.entries:
+            assert entry.twin is not None
+            assert relative_url(table.page, entry.twin.path) in page.cell_links.get(entry.anchor, []), entry.anchor
+            count += 1
+    assert count > 50
+
+
+def test_cg_rows_are_written_as_ket_expansions(built, parsed):
+    # the expansion |J M> = sum <j1 m1; j2 m2|J M> |j1 m1>|j2 m2> (Edmonds 1957, eq. 3.5.1 — from memory)
+    _, plan, book, _, files = built
+    for table in plan.tables_of("cg"):
+        page = parsed[table.page]
+        text = files[table.page].decode("utf-8")
+        j1, j2 = (_h(v) for _, v in table.params)
+        assert f'data-j="{j1},{j2}"' in text  # what the script needs to write the LaTeX
+        for section in table.sections:
+            tJ = dict(section.params)["J"]
+            for r, tM in enumerate(section.rows):
+                anchor = section.row_anchors[r]
+                item = text[text.index(f'<li id="{anchor}">') :]
+                item = item[: item.index("</li>")]
+                assert item.count("<math>") == page.math_in[anchor]
+                assert f"<mtext>|{_m(tJ)}, {_m(tM)}⟩</mtext><mo>=</mo>" in item
+                terms = [e for e in section.grid[r] if e is not None and book[("cg", e.key)].value]
+                assert page.math_in[anchor] == len(terms) + 1
+                for e in terms:
+                    tj1, tm1, tj2, tm2, _, _ = e.key
+                    assert f"|{_m(tj1)}, {_m(tm1)}⟩|{_m(tj2)}, {_m(tm2)}⟩</mtext>" in item, (anchor, e.key)
+                # the row header links to the expansion (the script finds the row this way)
+                assert text.count(f'<a href="#{anchor}">') == 1
+
+
+def _m(t: int) -> str:
+    return _h(t).replace("-", "−")
+
+
+def _h(t: int) -> str:
+    return str(t // 2) if t % 2 == 0 else f"{t}/2"
+
+
+def test_symbol_pages_list_every_form_and_the_racah_w(built):
+    _, plan, book, _, files = built
+    for table in plan.tables:
+        if table.family not in ("6j", "9j"):
+            continue
+        text = files[table.page].decode("utf-8")
+        for entry in table.entries:
+            row = text[text.index(f'<tr id="{entry.anchor}"') :]
+            row = row[: row.index("</tr>")]
+            for member, sign in entry.members:
+                shown_form = "{" + "; ".join(" ".join(_h(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
+                assert f"<li>{shown_form}" in row, (entry.anchor, shown_form)
+            if any(s < 0 for _, s in entry.members):
+                assert "Equal to minus the value" in row
+            if table.family == "6j":
+                w_args, w_sign = entry.w_form
+                assert f'data-t="{book[("w", w_args)].tex}"' in row
+                assert ("= −1 × the 6j" in row) == (w_sign < 0)
+
+
+def test_site_js_carries_this_builds_ranges(built):
+    recipe, plan, _, _, files = built
+    js = files["assets/site.js"].decode("utf-8")
+    m = re.search(r"var BUILD = (\{.*?\});\n", js)
+    assert m, "site.js lacks the build facts"
+    facts = json.loads(m.group(1))
+    assert facts["families"] == {f.family: [f.min_tj, f.max_tj] for f in recipe.families}
+    assert facts["pages"]["6j"] == list(dict(plan.family_pages)["6j"])
+
+
+def test_canonical_forms_reachable_by_name(built):
+    # the jump box lands on symbol_anchor(canonical); every class row must carry exactly that id
+    _, plan, _, _, _ = built
+    for table in plan.tables_of("6j"):
+        for entry in table.entries:
+            assert entry.anchor == symbol_anchor(sixj_canonical(*entry.key)[0], 3)
+    for table in plan.tables_of("9j"):
+        for entry in table.entries:
+            assert entry.anchor == symbol_anchor(ninej_canonical(*entry.key)[0], 3)
+
+
+def test_every_page_states_its_conventions_and_links_to_them(built):
+    _, plan, _, _, files = built
+    for page in plan.pages:
+        text = files[page.path].decode("utf-8")
+        assert 'conventions.html"' in text, page.path
+        if page.kind in ("cg", "3j", "6j"):
+            assert "Condon–Shortley" in text, page.path
+        if page.kind == "cg":
+            assert "(−1)^(j1−j2+M) √(2J+1)" in text
+        if page.kind == "6j":
+            assert "W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f}" in text
+
+
+def test_cite_page_has_bibtex_digest_and_recipe(built):
+    _, _, _, meta, files = built
+    text = files["cite.html"].decode("utf-8")
+    assert meta.data_digest in text
+    assert "@misc{tablegen-abababab," in text
+    assert "tablegen 0.1.0" in text
+    assert "[9j]" in text and 'max_j = &#34;1&#34;' in text
+
+
+def test_text_pages_have_offline_formulas(built):
+    files = built[4]
+    for path in ("conventions.html", "methods.html"):
+        text = files[path].decode("utf-8")
+        assert text.count("<math") > 20, path
+        assert "$" not in text.split("<main>")[1], f"{path}: a formula was left untranslated"
+        assert "zzmath" not in text
+
+
+def test_rendering_is_deterministic(built):
+    recipe, plan, book, meta, files = built
+    again = dict(render_html(plan, book, meta))
+    assert again == files
+    # a book filled in another order must give the same bytes (no dict-order dependence)
+    reordered = dict(reversed(list(book.items())))
+    assert dict(render_html(plan, reordered, meta)) == files
+
+
+def test_per_value_html_stays_compact(built):
+    # the committed default site must stay small (the issue asks for well under 15 MB in all)
+    _, plan, _, _, files = built
+    for fam in ("cg", "3j"):
+        tables = plan.tables_of(fam)
+        size = sum(len(files[t.page]) for t in tables)
+        values = sum(len(t.entries) for t in tables)
+        fixed = 4500 * len(tables)  # header, navigation and explanations of each page
+        assert (size - fixed) / values < 700, (fam, size, values)
+
+
+@pytest.mark.parametrize(
+    "mapping",
+    [
+        {"cg": {"max_j": "3/2"}},  # one family only
+        {"3j": {"max_j": 1, "min_j": "1/2"}, "9j": {"max_j": "1/2"}},  # a lower bound, no CG twins
+        {"cg": {"max_j": "1/2"}, "3j": {"max_j": 1}, "6j": {"max_j": "1/2"}},  # ranges that differ
+        {"6j": {"max_j": 1, "min_j": 1}, "latex_style": "rational", "digits": 30},
+    ],
+    ids=["cg-only", "3j-and-9j", "unequal-ranges", "6j-rational"],
+)
+def test_other_recipes_render_with_working_links(mapping):
+    recipe = recipe_from_mapping(mapping)
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = _meta(recipe, plan)
+    files = dict(render_html(plan, book, meta))
+    assert sorted(files) == sorted([p.path for p in plan.pages] + list(ASSETS))
+    parsed = {path: _parse(data) for path, data in files.items() if path.endswith(".html")}
+    known = _known_files(plan, book, meta, files)
+    for path, page in parsed.items():
+        for _, link in page.links:
+            parts = urlsplit(link)
+            target = posixpath.normpath(posixpath.join(posixpath.dirname(path), parts.path)) if parts.path else path
+            assert target in known, (path, link)
+            if parts.fragment:
+                assert parts.fragment in parsed[target].ids, (path, link)
+    for table in plan.tables:
+        for entry in table.entries:
+            shown = book[(table.family, entry.key)]
+            assert parsed[table.page].tex.get(entry.anchor, shown.tex) == shown.tex
+            if shown.value:
+                assert shown.decimal in files[table.page].decode("utf-8")
