@@ -226,6 +226,7 @@ def test_jump_box_finds_a_9j_from_a_non_canonical_form(tab):
         ("cg", ["2", "0", "1", "0", "1", "0"], "range"),  # j1 beyond this build
         ("3j", ["1", "1", "1", "1", "1", "1"], "do not add up"),
         ("6j", ["1", "1", "1", "1", "1", "3"], "triangle rule"),
+        ("w", ["1", "1", "1/2", "1", "1", "1"], "(c, d, e) do not add up"),
         ("9j", ["1", "1", "1", "1", "1", "1", "1", "1", "1/2"], "integer"),
         ("cg", ["1", "1/2", "1", "0", "1", "0"], "must be an integer"),
         ("cg", ["one", "0", "1", "0", "1", "0"], "not a number"),

@@ -118,7 +118,6 @@ class _Site:
         self.book = book
         self.meta = meta
         self.env = html_environment()
-        self.page_paths = {p.path for p in plan.pages}
         self.families = tuple(f.family for f in plan.recipe.families)
 
     # links ------------------------------------------------------------------
@@ -223,7 +222,8 @@ def _threej_rows(site: _Site, page: Page, section: Section) -> list[Row]:
     return rows
 
 
-def _files(page: Page, table: Table, plan: SitePlan) -> list[dict]:
+def _files(page: Page, table: Table) -> list[dict]:
+    """Links to the table's data and LaTeX files (written by the other renderers)."""
     return [
         {"label": "CSV", "href": relative_url(page.path, table.csv)},
         {"label": "JSON", "href": relative_url(page.path, table.json)},
@@ -255,7 +255,7 @@ def _pair_page(site: _Site, page: Page) -> bytes:
         j1=half_text(tj1),
         j2=half_text(tj2),
         sections=sections,
-        files=_files(page, table, site.plan),
+        files=_files(page, table),
         count=len(table.entries),
     )
 
@@ -300,7 +300,7 @@ def _symbol_page(site: _Site, page: Page) -> bytes:
         section=table.sections[0],
         classes=classes,
         forms=sum(len(c.plus) + len(c.minus) for c in classes),
-        files=_files(page, table, site.plan),
+        files=_files(page, table),
     )
 
 

@@ -356,8 +356,10 @@
   function resolveW(t) {
     checkJs(FAMILIES.w.names, t, [0, 1, 2, 3, 4, 5]);
     var a = t[0], b = t[1], c = t[2], d = t[3], e = t[4], f = t[5];
-    var sign = ((a + b + c + d) / 2) % 2 === 0 ? 1 : -1;
-    if ((a + b + c + d) % 2 !== 0) sign = 1; // a triad rule fails below
+    var sign = ((a + b + c + d) / 2) % 2 === 0 ? 1 : -1;  // a+b+c+d is whole once the triads hold
+    var why = triadRule(a, b, e, "(a, b, e)") || triadRule(c, d, e, "(c, d, e)") ||
+      triadRule(a, c, f, "(a, c, f)") || triadRule(b, d, f, "(b, d, f)");
+    if (why) return zero(why);
     var what = "W(" + [nice(a), nice(b), nice(c), nice(d)].join(" ") + "; " + nice(e) + " " + nice(f) + ")";
     return sixjTarget([a, b, e, d, c, f], what, sign);
   }
