@@ -119,6 +119,7 @@ class Page:
     prev: Link | None = None
     next: Link | None = None
     related: tuple[Link, ...] = ()
+    label: str = ""  # short name for navigation links (the title when empty)
 
 
 @dataclass(frozen=True)
@@ -191,9 +192,10 @@ def _chain(pages: list[Page]) -> list[Page]:
     """Set prev/next links along a family's page order."""
     out = []
     for i, p in enumerate(pages):
-        prev = Link(pages[i - 1].title, pages[i - 1].path) if i else None
-        nxt = Link(pages[i + 1].title, pages[i + 1].path) if i + 1 < len(pages) else None
-        out.append(Page(p.path, p.title, p.kind, p.tables, prev, nxt, p.related))
+        before, after = (pages[i - 1] if i else None), (pages[i + 1] if i + 1 < len(pages) else None)
+        prev = Link(before.label or before.title, before.path) if before else None
+        nxt = Link(after.label or after.title, after.path) if after else None
+        out.append(Page(p.path, p.title, p.kind, p.tables, prev, nxt, p.related, p.label))
     return out
 
 
@@ -327,7 +329,8 @@ def _pair_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]:
                 if family == "cg"
                 else f"3j symbols ({_h(tj1)} {_h(tj2)} j3; m1 m2 m3)"
             )
-            pages.append(Page(table.page, title, family, (table.id,), related=tuple(related)))
+            label = f"{_h(tj1)} ⊗ {_h(tj2)}" if family == "cg" else f"3j {_h(tj1)}, {_h(tj2)}"
+            pages.append(Page(table.page, title, family, (table.id,), related=tuple(related), label=label))
             tables.append(table)
     return _chain(pages), tables
 
@@ -419,7 +422,8 @@ def _symbol_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]
                 **_table_files(tid),
             )
         )
-        pages.append(Page(path_of(top), title, family, (tid,)))
+        index = Link(f"all {label} pages", f"index.html#{family}")
+        pages.append(Page(path_of(top), title, family, (tid,), related=(index,), label=f"{label}, largest j {_h(top)}"))
     return _chain(pages), tables
 
 
