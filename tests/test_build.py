@@ -202,10 +202,6 @@ def test_recipe_text_is_escaped_in_latex(text_site: Path) -> None:
     assert "tgscript" in booklet and "tgital" in booklet
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="known bug: buildinfo.bibtex writes the recipe title into cite.bib without LaTeX escaping",
-)
 def test_recipe_text_is_escaped_in_bibtex(text_site: Path) -> None:
     # BibTeX passes field text to LaTeX, so & % $ # _ ^ ~ \ must be escaped there as well
     # -- Patashnik 1988, BibTeXing, §4 (from memory)
