@@ -2,7 +2,7 @@
 
 The result is a ValueBook: (family, doubled key) -> Shown.  Shown carries the
 exact value and each text form the renderers print (exact text, signed
-square, decimal, LaTeX in both root styles), so that renderers only format.
+square, decimal, LaTeX in the recipe's root style), so that renderers only format.
 Work is split into fixed chunks in plan order and reassembled in that order,
 so the result does not depend on how many processes ran.
 """
@@ -24,7 +24,7 @@ PARALLEL_THRESHOLD = 8_000
 CHUNK = 2_000
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Shown:
     """A value and the text forms shown for it."""
 
@@ -33,7 +33,6 @@ class Shown:
     square: str
     decimal: str
     tex: str  # in the recipe's LaTeX style
-    tex_other: str  # in the other style
 
     @property
     def tex_abs(self) -> str:
@@ -46,14 +45,12 @@ ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
 
 def show(value: Surd, digits: int, style: str) -> Shown:
     """All text forms of one value."""
-    other = "rational" if style == "root" else "root"
     return Shown(
         value=value,
         exact=str(value),
         square=str(value.squared()),
         decimal=value.decimal(digits),
         tex=value.latex(style),
-        tex_other=value.latex(other),
     )
 
 

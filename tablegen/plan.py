@@ -35,7 +35,7 @@ __all__ = [
 ]
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Link:
     """A labelled link to a page (path) or to a place on it (path#anchor)."""
 
@@ -43,27 +43,38 @@ class Link:
     path: str
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Entry:
     """One tabulated value.
 
     key: doubled arguments in the family's argument order
          (cg: j1 m1 j2 m2 J M; 3j: j1 j2 j3 m1 m2 m3; 6j: six; 9j: nine in rows).
     anchor: HTML id, unique on its page.
-    twin: the same number in the other convention (CG <-> 3j), if tabulated.
-    members: 6j/9j only: every symbol of the class with its sign,
-             value(member) = sign * value(key); the key itself comes first.
+    twin: path#anchor of the same number in the other convention (CG <-> 3j), if tabulated.
+    forms: 6j/9j only: how many distinct symbols the class holds (see ``members``).
     w_form: 6j only: (W arguments, sign) with W = sign * this 6j.
     """
 
     key: tuple[int, ...]
     anchor: str
-    twin: Link | None = None
-    members: tuple[tuple[tuple[int, ...], int], ...] = ()
+    twin: str | None = None
+    forms: int = 0
     w_form: tuple[tuple[int, ...], int] | None = None
 
+    @property
+    def members(self) -> tuple[tuple[tuple[int, ...], int], ...]:
+        """6j/9j: every symbol of the class with its sign, value(member) = sign * value(key).
 
-@dataclass(frozen=True)
+        Derived from the key on demand (the key is the class's canonical form,
+        listed first) rather than stored: a large build has millions of forms.
+        """
+        if not self.forms:
+            return ()
+        members_of = sixj_members if len(self.key) == 6 else ninej_members
+        return tuple(members_of(*self.key))
+
+
+@dataclass(frozen=True, slots=True)
 class Section:
     """A block of a table.
 
@@ -84,7 +95,7 @@ class Section:
     params: tuple[tuple[str, int], ...] = ()
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Table:
     """One table: what a page shows and what one data file and one LaTeX sheet hold."""
 
@@ -108,7 +119,7 @@ class Table:
         return dict(self.params)[name]
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Page:
     """One HTML page."""
 
@@ -122,7 +133,7 @@ class Page:
     label: str = ""  # short name for navigation links (the title when empty)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SitePlan:
     recipe: Recipe
     pages: tuple[Page, ...]
@@ -220,11 +231,7 @@ def _cg_table(tj1: int, tj2: int, threej: FamilyRange | None) -> Table:
                 if abs(tm2) > tj2:
                     line.append(None)
                     continue
-                twin = (
-                    Link(f"({_h(tj1)} {_h(tj2)} {_h(tJ)}; {_h(tm1)} {_h(tm2)} {_h(-tM)})",
-                         f"{twin_page}#{threej_anchor(tJ, -tM, tm1)}")
-                    if twin_page else None
-                )
+                twin = f"{twin_page}#{threej_anchor(tJ, -tM, tm1)}" if twin_page else None
                 e = Entry((tj1, tm1, tj2, tm2, tJ, tM), cg_anchor(tJ, tM, tm1), twin)
                 line.append(e)
                 entries.append(e)
@@ -269,11 +276,7 @@ def _threej_table(tj1: int, tj2: int, cg: FamilyRange | None) -> Table:
                 if abs(tm2) > tj2:
                     line.append(None)
                     continue
-                twin = (
-                    Link(f"<{_h(tj1)} {_h(tm1)}; {_h(tj2)} {_h(tm2)} | {_h(tj3)} {_h(-tm3)}>",
-                         f"{twin_page}#{cg_anchor(tj3, -tm3, tm1)}")
-                    if twin_page else None
-                )
+                twin = f"{twin_page}#{cg_anchor(tj3, -tm3, tm1)}" if twin_page else None
                 e = Entry((tj1, tj2, tj3, tm1, tm2, tm3), threej_anchor(tj3, tm3, tm1), twin)
                 line.append(e)
                 entries.append(e)
@@ -379,10 +382,8 @@ def _classes(symbols, members_of):
             continue
         members = members_of(*s)  # sorted descending: members[0] is the canonical form
         canon, canon_sign = members[0]
-        # re-express signs relative to the canonical form
-        rel = tuple((m, sign * canon_sign) for m, sign in members)
         seen.update(m for m, _ in members)
-        classes.append((canon, rel))
+        classes.append((canon, len(members)))
     classes.sort(key=lambda c: c[0])
     return classes
 
@@ -396,17 +397,17 @@ def _symbol_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]
         classes = _classes(ninej_symbols(f), ninej_members)
         path_of, row = ninej_page_path, 3
     by_top: dict[int, list] = {}
-    for canon, members in classes:
-        by_top.setdefault(canon[0], []).append((canon, members))
+    for canon, forms in classes:
+        by_top.setdefault(canon[0], []).append((canon, forms))
     pages, tables = [], []
     for top in sorted(by_top):
         entries = []
-        for canon, members in by_top[top]:
+        for canon, forms in by_top[top]:
             w_form = None
             if family == "6j":
                 a, b, e, d, c, g = canon  # {a b e; d c f} = (-1)^(a+b+c+d) W(a b c d; e f)
                 w_form = ((a, b, c, d, e, g), -1 if ((a + b + c + d) // 2) & 1 else 1)
-            entries.append(Entry(canon, symbol_anchor(canon, row), None, members, w_form))
+            entries.append(Entry(canon, symbol_anchor(canon, row), None, forms, w_form))
         tid = f"{family}-jmax-{file_code(top)}"
         label, forms = ("6j", 144) if family == "6j" else ("9j", 72)
         title = f"{label} classes whose largest j, over all {forms} equivalent forms, is {_h(top)}"

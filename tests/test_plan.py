@@ -154,12 +154,12 @@ def test_twin_links_point_at_existing_anchors_with_the_related_value(plan) -> No
         for table in plan.tables_of(family):
             for e in table.entries:
                 assert e.twin is not None  # both families cover the same range here
-                page, _, anchor = e.twin.path.partition("#")
-                assert page in index, e.twin.path
-                assert anchor in index[page], e.twin.path
+                page, _, anchor = e.twin.partition("#")
+                assert page in index, e.twin
+                assert anchor in index[page], e.twin
                 twin = index[page][anchor]
                 assert twin is not None and twin.twin is not None
-                assert twin.twin.path.split("#")[0] == table.page and twin.twin.path.split("#")[1] == e.anchor
+                assert twin.twin.split("#")[0] == table.page and twin.twin.split("#")[1] == e.anchor
                 cg_key, tj_key = (e.key, twin.key) if family == "cg" else (twin.key, e.key)
                 tj1, tm1, tj2, tm2, tJ, tM = cg_key
                 assert tj_key == (tj1, tj2, tJ, tm1, tm2, -tM)
@@ -178,7 +178,7 @@ def test_no_twin_outside_the_other_family_range() -> None:
         tj1, tj2 = dict(table.params)["j1"], dict(table.params)["j2"]
         for e in table.entries:
             if tj1 == tj2 == 1:
-                assert e.twin is not None and e.twin.path.split("#")[1] in index[e.twin.path.split("#")[0]]
+                assert e.twin is not None and e.twin.split("#")[1] in index[e.twin.split("#")[0]]
             else:
                 assert e.twin is None, (table.id, e.key)
 

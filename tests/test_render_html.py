@@ -205,7 +205,7 @@ def test_cg_and_3j_cells_link_to_their_twins(built, parsed):
         page = parsed[table.page]
         for entry in table.entries:
             assert entry.twin is not None
-            assert relative_url(table.page, entry.twin.path) in page.cell_links.get(entry.anchor, []), entry.anchor
+            assert relative_url(table.page, entry.twin) in page.cell_links.get(entry.anchor, []), entry.anchor
             count += 1
     assert count > 50
 

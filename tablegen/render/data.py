@@ -54,9 +54,9 @@ def _rows(table: Table, book: ValueBook) -> Iterator[list[str]]:
         row = [half_text(x) for x in entry.key] + [shown.exact, shown.square, shown.decimal]
         if table.family == "6j":
             w_args, w_sign = entry.w_form
-            row += [str(len(entry.members)), " ".join(half_text(x) for x in w_args), str(w_sign)]
+            row += [str(entry.forms), " ".join(half_text(x) for x in w_args), str(w_sign)]
         elif table.family == "9j":
-            row.append(str(len(entry.members)))
+            row.append(str(entry.forms))
         yield row
 
 
@@ -90,7 +90,7 @@ def _json(table: Table, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
             "square": shown.square,
             "decimal": shown.decimal,
         }
-        if entry.members:
+        if entry.forms:
             row["forms"] = [[" ".join(half_text(x) for x in m), s] for m, s in entry.members]
         if entry.w_form is not None:
             row["w"] = {"args": [half_text(x) for x in entry.w_form[0]], "sign": entry.w_form[1]}

@@ -170,7 +170,7 @@ class _Site:
             math=Markup(mathml.value_inner(s.tex)),
             decimal=s.decimal,
             note=note,
-            twin=relative_url(page.path, entry.twin.path) if entry.twin else None,
+            twin=relative_url(page.path, entry.twin) if entry.twin else None,
             zero=not s.value,
         )
 
@@ -337,7 +337,7 @@ def _symbol_lists(site: _Site, page: Page) -> list[dict]:
                 "label": _dash(half_text(dict(t.params)["jmax"])),
                 "href": relative_url(page.path, t.page),
                 "classes": len(t.entries),
-                "forms": sum(len(e.members) for e in t.entries),
+                "forms": sum(e.forms for e in t.entries),
             })
         out.append({"family": fam, "name": FAMILY_NAMES[fam], "pages": items})
     return out
@@ -349,7 +349,7 @@ def _summary(site: _Site) -> list[dict]:
     for f in site.plan.recipe.families:
         pages = dict(site.plan.family_pages).get(f.family, ())
         tables = site.plan.tables_of(f.family)
-        forms = sum(len(e.members) for t in tables for e in t.entries) if f.family in ("6j", "9j") else None
+        forms = sum(e.forms for t in tables for e in t.entries) if f.family in ("6j", "9j") else None
         rows.append({
             "family": f.family,
             "name": FAMILY_NAMES[f.family],
