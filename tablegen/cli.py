@@ -201,6 +201,7 @@ def _range_option(family: str, text: str) -> dict | bool:
 
 
 def _build_recipe(ns: argparse.Namespace):
+    from .errors import RecipeError
     from .recipe import DEFAULT_RECIPE, Recipe, load_recipe, recipe_from_mapping
 
     overrides: dict = {}
@@ -218,7 +219,12 @@ def _build_recipe(ns: argparse.Namespace):
         base = Recipe(title=DEFAULT_RECIPE.title)  # only the families asked for
     else:
         base = DEFAULT_RECIPE
-    recipe = recipe_from_mapping(overrides, base=base)
+    try:
+        recipe = recipe_from_mapping(overrides, base=base)
+    except RecipeError as exc:  # only the options are checked here: name the option
+        option = exc.key.split(".")[0].replace("_", "-")
+        given = getattr(ns, f"range_{option}", None) if option in ("cg", "3j", "6j", "9j") else exc.value
+        raise _UsageError(f"tablegen build: argument --{option} = {given!r}: {exc.rule}") from None
     if not recipe.families:
         raise _UsageError("tablegen build: the recipe tabulates no family (give --cg, --3j, --6j or --9j)")
     return recipe

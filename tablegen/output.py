@@ -14,6 +14,9 @@ import hashlib
 import json
 import os
 import shutil
+import signal
+import threading
+from contextlib import contextmanager
 from pathlib import Path, PurePosixPath
 
 from .errors import OutputError
@@ -79,7 +82,12 @@ class Staging:
 
     def __enter__(self) -> "Staging":
         _remove_leftovers(self.target)
-        self._dir.mkdir()
+        try:
+            with _signals_held():
+                self._dir.mkdir()
+        except BaseException:
+            shutil.rmtree(self._dir, ignore_errors=True)
+            raise
         return self
 
     def __exit__(self, exc_type, exc, tb) -> None:
@@ -112,13 +120,29 @@ class Staging:
     def _swap(self) -> None:
         target = self.target
         old = target.parent / f".{target.name}{_OLD_TAG}{os.getpid()}"
-        if target.exists():
-            # the target was checked to be empty or a tablegen site
-            os.rename(target, old)
-        try:
-            os.rename(self._dir, target)
-        except OSError:
-            if old.exists():
-                os.rename(old, target)  # put the previous site back
-            raise
+        # no interrupt may fall between the two renames: hold SIGINT/SIGTERM until both are done
+        with _signals_held():
+            if target.exists():
+                # the target was checked to be empty or a tablegen site
+                os.rename(target, old)
+            try:
+                os.rename(self._dir, target)
+            except BaseException:
+                if old.exists():
+                    os.rename(old, target)  # put the previous site back
+                raise
         shutil.rmtree(old, ignore_errors=True)
+
+
+@contextmanager
+def _signals_held():
+    """Defer SIGINT and SIGTERM (where the platform allows) for a critical section."""
+    held = {signal.SIGINT, signal.SIGTERM}
+    can_block = hasattr(signal, "pthread_sigmask") and threading.current_thread() is threading.main_thread()
+    if can_block:
+        previous = signal.pthread_sigmask(signal.SIG_BLOCK, held)
+    try:
+        yield
+    finally:
+        if can_block:
+            signal.pthread_sigmask(signal.SIG_SETMASK, previous)

@@ -58,6 +58,7 @@ MAX_NOTES = 4000
 #: Refuse builds estimated above this many values unless the caller insists.
 VALUE_LIMIT = 1_500_000
 
+_NO_J_LIMIT = 10**9
 _TOP_KEYS = ("title", "notes", "digits", "latex_style") + FAMILIES
 _FAMILY_KEYS = ("max_j", "min_j")
 
@@ -125,7 +126,8 @@ def _toml_string(text: str) -> str:
     escaped = (
         text.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n").replace("\t", "\\t")
     )
-    escaped = "".join(c if c >= " " or c in "\\" else f"\\u{ord(c):04x}" for c in escaped)
+    # TOML basic strings forbid control characters (U+0000-U+001F except tab, and U+007F)
+    escaped = "".join(f"\\u{ord(c):04x}" if c < " " or c == "\x7f" else c for c in escaped)
     return f'"{escaped}"'
 
 
@@ -170,7 +172,8 @@ def _j_value(key: str, value: object) -> int:
     if isinstance(value, bool) or not isinstance(value, (int, float, str)):
         raise RecipeError(key, value, "must be a number such as 4, 3.5 or \"7/2\"")
     try:
-        return parse_j(value, key, max_j=None)
+        # no size limit here: check_size judges the whole recipe, with --allow-large to insist
+        return parse_j(value, key, max_j=_NO_J_LIMIT)
     except QuantumNumberError as exc:
         raise RecipeError(key, value, exc.rule) from None
 

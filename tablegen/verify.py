@@ -18,6 +18,7 @@ from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments
 from .errors import OutputError, TablegenError
 from .notation import symbol_text
 from .output import MANIFEST, SUMS, sha256_hex
+from .recipe import MAX_DIGITS
 from .render.data import TABLE_FORMAT
 from .surd import Surd
 
@@ -44,6 +45,7 @@ class _Engine:
 
     def __init__(self, digits: int | None) -> None:
         self.digits = digits
+        self.seen_in_tables: set[tuple[str, tuple[str, ...]]] = set()
         self._cache: dict[tuple[str, tuple[str, ...]], tuple[str, tuple[int, ...], Surd]] = {}
 
     def value(self, family: str, args: tuple[str, ...]) -> tuple[tuple[int, ...], Surd]:
@@ -74,9 +76,18 @@ def _check_value(report: Report, engine: _Engine, where: str, family: str, args,
             report.problems.append(f"{where}: {name}: decimal {decimal!r}, but the engine gives {want!r}")
 
 
+def _read_text(root: Path, path: str, report: Report) -> str | None:
+    """A file's text, or None with a problem reported if it is not UTF-8."""
+    try:
+        return (root / path).read_text(encoding="utf-8")
+    except UnicodeDecodeError as exc:
+        report.problems.append(f"{path}: not UTF-8 text (byte {exc.start})")
+        return None
+
+
 def _check_sums(root: Path, report: Report) -> set[str]:
     listed: dict[str, str] = {}
-    text = (root / SUMS).read_text(encoding="utf-8")
+    text = _read_text(root, SUMS, report) or ""
     for n, line in enumerate(text.splitlines(), 1):
         digest, sep, path = line.partition("  ")
         if not sep or len(digest) != 64:
@@ -109,7 +120,10 @@ def _family_of_columns(columns: list[str]) -> str | None:
 
 
 def _check_csv(root: Path, path: str, engine: _Engine, report: Report) -> None:
-    rows = list(csv.reader(io.StringIO((root / path).read_text(encoding="utf-8"))))
+    text = _read_text(root, path, report)
+    if text is None:
+        return
+    rows = list(csv.reader(io.StringIO(text)))
     if not rows:
         report.problems.append(f"{path}: empty")
         return
@@ -125,12 +139,15 @@ def _check_csv(root: Path, path: str, engine: _Engine, report: Report) -> None:
             report.problems.append(f"{path} line {i}: {len(row)} fields, expected {len(head)}")
             continue
         _check_value(report, engine, f"{path} line {i}", family, row[:n], row[ie], row[iq], row[idec])
+        engine.seen_in_tables.add((family, tuple(row[:n])))
+        if family == "6j" and "w" in head:
+            engine.seen_in_tables.add(("w", tuple(row[head.index("w")].split(" "))))
 
 
 def _check_json(root: Path, path: str, engine: _Engine, report: Report) -> None:
     try:
-        doc = json.loads((root / path).read_text(encoding="utf-8"))
-    except ValueError as exc:
+        doc = json.loads((root / path).read_bytes().decode("utf-8"))
+    except ValueError as exc:  # UnicodeDecodeError is a ValueError too
         report.problems.append(f"{path}: not valid JSON ({exc})")
         return
     if not isinstance(doc, dict) or doc.get("format") != TABLE_FORMAT:
@@ -150,7 +167,11 @@ def _check_json(root: Path, path: str, engine: _Engine, report: Report) -> None:
 
 
 def _check_values_txt(root: Path, engine: _Engine, report: Report) -> None:
-    for i, line in enumerate((root / "values.txt").read_text(encoding="utf-8").splitlines(), 1):
+    text = _read_text(root, "values.txt", report)
+    if text is None:
+        return
+    listed: set[tuple[str, tuple[str, ...]]] = set()
+    for i, line in enumerate(text.splitlines(), 1):
         if not line or line.startswith("#"):
             continue
         parts = line.split(" ")
@@ -163,6 +184,12 @@ def _check_values_txt(root: Path, engine: _Engine, report: Report) -> None:
             report.problems.append(f"values.txt line {i}: expected {n} arguments and a value")
             continue
         _check_value(report, engine, f"values.txt line {i}", family, parts[1 : n + 1], parts[-1], None, None)
+        listed.add((family, tuple(parts[1 : n + 1])))
+    # the digest covers values.txt, so the tables must hold exactly the same values
+    for family, args in sorted(engine.seen_in_tables - listed):
+        report.problems.append(f"values.txt: lacks {family} {' '.join(args)}, which a data file tabulates")
+    for family, args in sorted(listed - engine.seen_in_tables):
+        report.problems.append(f"values.txt: lists {family} {' '.join(args)}, which no CSV table holds")
 
 
 def verify_site(folder: str) -> Report:
@@ -177,8 +204,11 @@ def verify_site(folder: str) -> Report:
     digits = None
     if MANIFEST in present:
         try:
-            manifest = json.loads((root / MANIFEST).read_text(encoding="utf-8"))
-            digits = int(manifest["recipe"]["digits"])
+            manifest = json.loads((root / MANIFEST).read_bytes().decode("utf-8"))
+            digits = manifest["recipe"]["digits"]
+            if isinstance(digits, bool) or not isinstance(digits, int) or not 1 <= digits <= MAX_DIGITS:
+                report.problems.append(f"{MANIFEST}: recipe digits {digits!r} is not a whole number from 1 to {MAX_DIGITS}")
+                digits = None
             if "values.txt" in present:
                 actual = sha256_hex((root / "values.txt").read_bytes())
                 if manifest.get("data_digest") != actual:

@@ -61,14 +61,14 @@ def test_none_leaves_a_family_out_of_a_recipe_file(capsys, tmp_path: Path) -> No
 @pytest.mark.parametrize(
     "option, text, words",
     [
-        ("--cg", "1..", "cg.max_j"),
-        ("--cg", "..2", "cg.min_j"),
-        ("--3j", "abc", "3j.max_j"),
+        ("--cg", "1..", "--cg = '1..'"),
+        ("--cg", "..2", "--cg = '..2'"),
+        ("--3j", "abc", "--3j = 'abc'"),
         ("--6j", "2..1", "reversed range"),
         ("--6j", "1/3", "multiple of 1/2"),
-        ("--9j", "1...2", "9j.max_j"),
+        ("--9j", "1...2", "--9j = '1...2'"),
         ("--cg", "-1", ">= 0"),
-        ("--cg", "1,2", "cg.max_j"),
+        ("--cg", "1,2", "--cg = '1,2'"),
     ],
 )
 def test_bad_range_is_one_line(capsys, tmp_path: Path, option: str, text: str, words: str) -> None:

@@ -294,11 +294,6 @@ def test_sigterm_keeps_the_previous_site(tmp_path: Path, moment: str) -> None:
 
 
 # -- an interrupt at the worst moments, simulated deterministically --------------------------------
-@pytest.mark.xfail(
-    strict=True,
-    reason="known bug: Staging._swap restores the old site only on OSError; an interrupt between "
-    "its two renames leaves no site at the target (the old one waits in .NAME.tablegen-old-PID)",
-)
 def test_interrupt_between_the_two_renames_keeps_the_previous_site(tmp_path: Path, monkeypatch) -> None:
     import tablegen.output as output_module
 
@@ -322,11 +317,6 @@ def test_interrupt_between_the_two_renames_keeps_the_previous_site(tmp_path: Pat
     assert _hidden_leftovers(tmp_path) == []
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="known bug: Staging.__enter__ creates the staging folder before the with block is armed; "
-    "an interrupt right after the mkdir leaves it behind until the next build",
-)
 def test_interrupt_right_after_the_staging_folder_is_made(tmp_path: Path, monkeypatch) -> None:
     out = tmp_path / "site"
     _write_site(out, {"a.txt": b"first"})

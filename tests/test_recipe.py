@@ -375,10 +375,6 @@ def test_sixj_symbol_enumeration_matches_triangle_rule() -> None:
     assert set(got) == expected
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="known bug: Recipe.toml_text leaves U+007F unescaped, which TOML 1.0 forbids in strings",
-)
 def test_toml_text_escapes_delete_character(tmp_path: Path) -> None:
     # TOML 1.0, "String": control characters other than tab (U+0000-U+0008, U+000A-U+001F,
     # U+007F) must be escaped in basic strings.  recipe_from_mapping accepts such a title
