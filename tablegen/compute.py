@@ -110,6 +110,9 @@ def _run(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
         return
     import multiprocessing
 
-    ctx = multiprocessing.get_context("fork" if hasattr(os, "fork") else "spawn")
+    # fresh worker processes (not forks of this one): they hold only the engine,
+    # not a copy of the plan, which keeps a large build's memory down
+    methods = multiprocessing.get_all_start_methods()
+    ctx = multiprocessing.get_context("forkserver" if "forkserver" in methods else "spawn")
     with ctx.Pool(jobs, initializer=_worker_start) as pool:
         yield from pool.imap(_compute_chunk, work)
