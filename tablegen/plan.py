@@ -14,6 +14,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from functools import lru_cache
+from typing import Callable
 
 from .recipe import FAMILY_NAMES, FamilyRange, Recipe
 from .spins import half_text
@@ -215,90 +216,82 @@ def _in(f: FamilyRange | None, *tjs: int) -> bool:
 
 
 # -- CG and 3j -----------------------------------------------------------------
-def _cg_table(tj1: int, tj2: int, threej: FamilyRange | None) -> Table:
-    page = cg_page_path(tj1, tj2)
-    twin_page = threej_page_path(tj1, tj2) if _in(threej, tj1, tj2) else None
+@dataclass(frozen=True)
+class _PairLayout:
+    """How one of the two pair families (CG, 3j) lays out its grid.
+
+    Both tabulate a coupling (j1, j2) in sections by the third j (J or j3),
+    grid rows by the third projection r (M or m3) and columns by m1.
+    """
+
+    family: str
+    third: str  # name of the third j: "J" or "j3"
+    row: str  # name of the third projection: "M" or "m3"
+    row_tag: str  # prefix of row anchors: "ket" (CG rows are ket expansions) or "row"
+    title: str
+    page_path: Callable[[int, int], str]
+    anchor: Callable[[int, int, int], str]  # (third, r, m1) -> id on this page
+    twin_page_path: Callable[[int, int], str]
+    twin_anchor: Callable[[int, int, int], str]  # (third, -r, m1) -> id on the twin page
+    m2: Callable[[int, int], int]  # (r, m1) -> m2
+    key: Callable[[int, int, int, int, int, int], tuple[int, ...]]  # (j1, j2, k, m1, m2, r)
+
+
+_PAIR_LAYOUTS = {
+    "cg": _PairLayout(
+        "cg", "J", "M", "ket", "Clebsch–Gordan coefficients",
+        cg_page_path, cg_anchor, threej_page_path, threej_anchor,
+        m2=lambda r, m1: r - m1,  # m1 + m2 = M
+        key=lambda j1, j2, k, m1, m2, r: (j1, m1, j2, m2, k, r),
+    ),
+    "3j": _PairLayout(
+        "3j", "j3", "m3", "row", "Wigner 3j symbols",
+        threej_page_path, threej_anchor, cg_page_path, cg_anchor,
+        m2=lambda r, m1: -m1 - r,  # m1 + m2 + m3 = 0
+        key=lambda j1, j2, k, m1, m2, r: (j1, j2, k, m1, m2, r),
+    ),
+}
+
+
+def _pair_table(layout: _PairLayout, tj1: int, tj2: int, other: FamilyRange | None) -> Table:
+    """The table of one coupling j1 x j2: a section per third j, a grid per section."""
+    twin_page = layout.twin_page_path(tj1, tj2) if _in(other, tj1, tj2) else None
+    cols = tuple(range(tj1, -tj1 - 1, -2))
     sections = []
-    for tJ in range(tj1 + tj2, abs(tj1 - tj2) - 1, -2):
-        rows = tuple(range(tJ, -tJ - 1, -2))
-        cols = tuple(range(tj1, -tj1 - 1, -2))
-        grid = []
-        entries = []
-        for tM in rows:
+    for tk in range(tj1 + tj2, abs(tj1 - tj2) - 1, -2):
+        rows = tuple(range(tk, -tk - 1, -2))
+        grid, entries = [], []
+        for tr in rows:
             line = []
             for tm1 in cols:
-                tm2 = tM - tm1
+                tm2 = layout.m2(tr, tm1)
                 if abs(tm2) > tj2:
                     line.append(None)
                     continue
-                twin = f"{twin_page}#{threej_anchor(tJ, -tM, tm1)}" if twin_page else None
-                e = Entry((tj1, tm1, tj2, tm2, tJ, tM), cg_anchor(tJ, tM, tm1), twin)
+                twin = f"{twin_page}#{layout.twin_anchor(tk, -tr, tm1)}" if twin_page else None
+                e = Entry(layout.key(tj1, tj2, tk, tm1, tm2, tr), layout.anchor(tk, tr, tm1), twin)
                 line.append(e)
                 entries.append(e)
             grid.append(tuple(line))
+        third = f"{layout.third}={_h(tk)}"
         sections.append(
             Section(
-                title=f"J = {_h(tJ)}",
-                anchor=f"J={_h(tJ)}",
+                title=f"{layout.third} = {_h(tk)}",
+                anchor=third,
                 entries=tuple(entries),
                 rows=rows,
                 columns=cols,
                 grid=tuple(grid),
-                row_anchors=tuple(f"ket:J={_h(tJ)},M={_h(tM)}" for tM in rows),
-                params=(("J", tJ),),
+                row_anchors=tuple(f"{layout.row_tag}:{third},{layout.row}={_h(tr)}" for tr in rows),
+                params=((layout.third, tk),),
             )
         )
-    tid = f"cg-{file_code(tj1)}x{file_code(tj2)}"
+    tid = f"{layout.family}-{file_code(tj1)}x{file_code(tj2)}"
     return Table(
         id=tid,
-        family="cg",
-        title=f"Clebsch–Gordan coefficients for j1 = {_h(tj1)}, j2 = {_h(tj2)}",
-        page=page,
-        sections=tuple(sections),
-        params=(("j1", tj1), ("j2", tj2)),
-        **_table_files(tid),
-    )
-
-
-def _threej_table(tj1: int, tj2: int, cg: FamilyRange | None) -> Table:
-    page = threej_page_path(tj1, tj2)
-    twin_page = cg_page_path(tj1, tj2) if _in(cg, tj1, tj2) else None
-    sections = []
-    for tj3 in range(tj1 + tj2, abs(tj1 - tj2) - 1, -2):
-        rows = tuple(range(tj3, -tj3 - 1, -2))
-        cols = tuple(range(tj1, -tj1 - 1, -2))
-        grid = []
-        entries = []
-        for tm3 in rows:
-            line = []
-            for tm1 in cols:
-                tm2 = -tm1 - tm3
-                if abs(tm2) > tj2:
-                    line.append(None)
-                    continue
-                twin = f"{twin_page}#{cg_anchor(tj3, -tm3, tm1)}" if twin_page else None
-                e = Entry((tj1, tj2, tj3, tm1, tm2, tm3), threej_anchor(tj3, tm3, tm1), twin)
-                line.append(e)
-                entries.append(e)
-            grid.append(tuple(line))
-        sections.append(
-            Section(
-                title=f"j3 = {_h(tj3)}",
-                anchor=f"j3={_h(tj3)}",
-                entries=tuple(entries),
-                rows=rows,
-                columns=cols,
-                grid=tuple(grid),
-                row_anchors=tuple(f"row:j3={_h(tj3)},m3={_h(tm3)}" for tm3 in rows),
-                params=(("j3", tj3),),
-            )
-        )
-    tid = f"3j-{file_code(tj1)}x{file_code(tj2)}"
-    return Table(
-        id=tid,
-        family="3j",
-        title=f"Wigner 3j symbols for j1 = {_h(tj1)}, j2 = {_h(tj2)}",
-        page=page,
+        family=layout.family,
+        title=f"{layout.title} for j1 = {_h(tj1)}, j2 = {_h(tj2)}",
+        page=layout.page_path(tj1, tj2),
         sections=tuple(sections),
         params=(("j1", tj1), ("j2", tj2)),
         **_table_files(tid),
@@ -309,14 +302,13 @@ def _pair_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]:
     f = recipe.family(family)
     other_name = "3j" if family == "cg" else "cg"
     other = recipe.family(other_name)
-    make = _cg_table if family == "cg" else _threej_table
-    path_of = cg_page_path if family == "cg" else threej_page_path
-    other_path = threej_page_path if family == "cg" else cg_page_path
+    layout = _PAIR_LAYOUTS[family]
+    path_of, other_path = layout.page_path, layout.twin_page_path
     js = range(f.min_tj, f.max_tj + 1)
     pages, tables = [], []
     for tj1 in js:
         for tj2 in js:
-            table = make(tj1, tj2, other)
+            table = _pair_table(layout, tj1, tj2, other)
             related = []
             if _in(other, tj1, tj2):
                 related.append(Link(f"{other_name.upper() if other_name == 'cg' else other_name} "
