@@ -55,6 +55,8 @@ def build(
     check_size(recipe, allow_large)  # refuse before any computing
     check_target(out_dir)  # refuse before any computing, too
 
+    if progress:
+        progress("planning", 0, 0)
     plan = plan_site(recipe)
 
     book = compute_values(plan, jobs, (lambda d, n: progress("computing", d, n)) if progress else None)

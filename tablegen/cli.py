@@ -243,7 +243,10 @@ def _run_build(ns: argparse.Namespace) -> int:
     show = sys.stderr.isatty() and not ns.quiet
 
     def progress(stage: str, done: int, total: int) -> None:
-        text = f"{stage} {done:,}/{total:,} values" if total else f"{stage} {done:,} files"
+        if total:
+            text = f"{stage} {done:,}/{total:,} values"
+        else:
+            text = f"{stage} {done:,} files" if done else f"{stage}..."
         print(f"\rtablegen: {text}\033[K", end="", file=sys.stderr, flush=True)
 
     result = build(recipe, ns.out, jobs=ns.jobs, allow_large=ns.allow_large, progress=progress if show else None)

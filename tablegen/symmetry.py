@@ -21,6 +21,7 @@ Tables list one row per class and caches may key on the canonical form.
 
 from __future__ import annotations
 
+from fractions import Fraction
 from itertools import permutations
 
 __all__ = [
@@ -32,6 +33,8 @@ __all__ = [
     "ninej_canonical",
     "members",
     "canonical",
+    "symmetry_class",
+    "canonical_form",
 ]
 
 def _perm_parity(p: tuple[int, ...]) -> int:
@@ -160,4 +163,40 @@ def members(kind: str, *t: int) -> list[tuple[tuple[int, ...], int]]:
 def canonical(kind: str, *t: int) -> tuple[tuple[int, ...], int]:
     """Canonical form and relating sign of a symbol of kind "3j", "6j" or "9j"."""
     return _CANONICAL[kind](*t)
+
+
+def _allowed_doubled(kind: str, values: tuple, max_j: int | None) -> tuple[int, ...]:
+    from .coefficients import DOUBLED, parse_arguments, why_zero_doubled
+
+    if kind not in _MEMBERS:
+        raise ValueError(f"argument kind = {kind!r}: must be one of 3j, 6j, 9j")
+    t = parse_arguments(kind, values, max_j)
+    rule = why_zero_doubled(kind, t) if not DOUBLED[kind](*t) else None
+    if rule and not rule.startswith(("cancellation", "parity", "symmetry")):
+        raise ValueError(f"the {kind} symbol is zero by a selection rule ({rule}); it has no symmetry class")
+    return t
+
+
+def _halves(t: tuple[int, ...]) -> tuple[Fraction, ...]:
+    return tuple(Fraction(x, 2) for x in t)
+
+
+def symmetry_class(kind: str, *values, max_j: int | None = None) -> list[tuple[tuple[Fraction, ...], int]]:
+    """Every symbol equal (up to sign) to the given one, as (arguments, sign).
+
+    Quantum numbers in any accepted form; arguments come back as Fractions in
+    the order of the symbol, with value(member) = sign * value(given symbol).
+
+    >>> len(symmetry_class("6j", 1, 2, 3, 3, 3, 3))
+    144
+    """
+    t = _allowed_doubled(kind, values, max_j)
+    return [(_halves(m), s) for m, s in members(kind, *t)]
+
+
+def canonical_form(kind: str, *values, max_j: int | None = None) -> tuple[tuple[Fraction, ...], int]:
+    """(canonical arguments, sign) with value(given symbol) = sign * value(canonical)."""
+    t = _allowed_doubled(kind, values, max_j)
+    canon, sign = canonical(kind, *t)
+    return _halves(canon), sign
 

@@ -16,6 +16,8 @@ from __future__ import annotations
 
 import itertools
 
+import pytest
+
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -340,3 +342,23 @@ def test_ninej_class_size_is_72_for_a_generic_symbol():
     assert allowed_9j(t) and ninej2(*t)
     assert len(dict(ninej_images(t))) == 72
     assert len(symmetry.members("9j", *t)) == 72
+
+
+def test_public_class_helpers_take_quantum_numbers() -> None:
+    # The 6j symbol's Regge class of a generic symbol has 144 members, all equal
+    # (Regge 1959; DLMF 34.5.8-10); the values are checked against the engine itself.
+    from fractions import Fraction
+
+    from tablegen import sixj, threej
+    from tablegen.symmetry import canonical_form, symmetry_class
+
+    members = symmetry_class("6j", 1, 2, 3, 3, 3, 3)
+    assert len(members) == 144
+    value = sixj(1, 2, 3, 3, 3, 3)
+    assert all(sign == 1 and sixj(*args) == value for args, sign in members)
+    # (j1 j2 j3; m1 m2 m3) = (-1)^(j1+j2+j3) (j2 j1 j3; m2 m1 m3) -- Edmonds 1957, eq. 3.7.5 (from memory)
+    args, sign = canonical_form("3j", "1/2", 1, "3/2", "1/2", 0, "-1/2")
+    assert threej("1/2", 1, "3/2", "1/2", 0, "-1/2") == sign * threej(*args)
+    assert all(isinstance(a, Fraction) for a in args)
+    with pytest.raises(ValueError, match="triangle"):
+        symmetry_class("6j", 1, 1, 5, 1, 1, 1)
