@@ -156,9 +156,9 @@ def test_command_line_families_replace_the_default_families() -> None:
 
 
 def test_command_line_keeps_default_families_for_other_options() -> None:
-    r = _parse_build(["--title", "Lecture notes", "--digits", "30", "--latex-style", "rational", "--notes", "n"])
+    r = _parse_build(["--title", "Shell-model notes", "--digits", "30", "--latex-style", "rational", "--notes", "n"])
     assert r.families == DEFAULT_RECIPE.families
-    assert (r.title, r.digits, r.latex_style, r.notes) == ("Lecture notes", 30, "rational", "n")
+    assert (r.title, r.digits, r.latex_style, r.notes) == ("Shell-model notes", 30, "rational", "n")
 
 
 def test_command_line_overrides_a_recipe_file(tmp_path: Path) -> None:
