@@ -104,7 +104,13 @@ def _too_large_rule(max_j: int | None) -> str:
 
 def parse_j(value: object, argument: str, max_j: int | None = None) -> int:
     """2j for an angular momentum j >= 0 and <= max_j (DEFAULT_MAX_J if None)."""
-    tj = value + value if type(value) is int else _doubled(value, argument)
+    kind = type(value)
+    if kind is int:
+        tj = value + value
+    elif kind is Fraction and value._denominator <= 2:  # type: ignore[union-attr]
+        tj = value._numerator * (2 // value._denominator)  # type: ignore[union-attr]
+    else:
+        tj = _doubled(value, argument)
     if tj < 0:
         raise QuantumNumberError(argument, value, RULE_NEGATIVE_J)
     if tj > (_DEFAULT_TWICE_MAX if max_j is None else 2 * max_j):
@@ -118,7 +124,13 @@ def parse_m(value: object, argument: str, tj: int, j_argument: str, max_j: int |
     |m| > j is a selection-rule zero, not an error, but |m| beyond the size
     limit is refused like a j would be (it can only be a typo).
     """
-    tm = value + value if type(value) is int else _doubled(value, argument)
+    kind = type(value)
+    if kind is int:
+        tm = value + value
+    elif kind is Fraction and value._denominator <= 2:  # type: ignore[union-attr]
+        tm = value._numerator * (2 // value._denominator)  # type: ignore[union-attr]
+    else:
+        tm = _doubled(value, argument)
     if (tj - tm) & 1:
         raise QuantumNumberError(
             argument, value,
