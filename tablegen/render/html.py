@@ -13,6 +13,7 @@ from __future__ import annotations
 import json
 import posixpath
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Iterator
 
 from markupsafe import Markup
@@ -51,9 +52,14 @@ def relative_url(from_page: str, target: str) -> str:
     path, hash_, anchor = target.partition("#")
     if not path:
         return f"#{anchor}"
-    base = posixpath.dirname(from_page) or "."
-    rel = posixpath.relpath(path, base)
+    rel = _relative_path(posixpath.dirname(from_page) or ".", path)
     return f"{rel}#{anchor}" if hash_ else rel
+
+
+@lru_cache(maxsize=8192)
+def _relative_path(base: str, path: str) -> str:
+    """posixpath.relpath, remembered: a page links to few distinct files, many times."""
+    return posixpath.relpath(path, base)
 
 
 # -- small formatting helpers -------------------------------------------------
