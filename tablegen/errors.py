@@ -38,7 +38,8 @@ class RecipeError(TablegenError, ValueError):
         self.key = key
         self.value = value
         self.rule = rule
-        super().__init__(f"recipe key {key} = {_show(value)}: {rule}")
+        what = "argument" if key.startswith("--") else "recipe key"  # the file itself, or a key in it
+        super().__init__(f"{what} {key} = {_show(value)}: {rule}")
 
 
 class TooLargeError(TablegenError, ValueError):
