@@ -10,11 +10,10 @@ one-value lookup starts about as fast as the interpreter itself.
 
 from __future__ import annotations
 
-import argparse
-import json
 import sys
 
 from . import __version__
+from .coefficients import KINDS
 from .errors import TablegenError
 
 __all__ = ["main"]
@@ -23,7 +22,6 @@ EXIT_OK = 0
 EXIT_FAILED = 1
 EXIT_USAGE = 2
 
-_VALUE_KINDS = ("cg", "3j", "6j", "w", "9j")
 _VALUE_FLAGS_WITH_ARG = ("--digits", "--max-j")
 _VALUE_FLAGS = ("--latex", "--json", "-h", "--help")
 
@@ -32,14 +30,15 @@ class _UsageError(Exception):
     """A command-line usage mistake, reported in one line."""
 
 
-class _Parser(argparse.ArgumentParser):
-    """argparse, but usage errors become one line (no usage dump) and exit 2."""
+def _build_parser():
+    import argparse
 
-    def error(self, message: str):  # type: ignore[override]
-        raise _UsageError(f"{self.prog}: {message}")
+    class _Parser(argparse.ArgumentParser):
+        """argparse, but usage errors become one line (no usage dump) and exit 2."""
 
+        def error(self, message: str):  # type: ignore[override]
+            raise _UsageError(f"{self.prog}: {message}")
 
-def _build_parser() -> argparse.ArgumentParser:
     parser = _Parser(
         prog="tablegen",
         description="Exact Clebsch-Gordan, 3j, 6j, Racah W and 9j values and reference tables "
@@ -56,7 +55,7 @@ def _build_parser() -> argparse.ArgumentParser:
         "6j j1 j2 j3 j4 j5 j6; w a b c d e f; 9j j11 j12 j13 j21 j22 j23 j31 j32 j33. "
         "Quantum numbers may be written 3/2, 1.5, -1/2 or 2.",
     )
-    value.add_argument("kind", choices=_VALUE_KINDS, metavar="KIND")
+    value.add_argument("kind", choices=KINDS, metavar="KIND")
     value.add_argument("args", nargs="*", metavar="ARG")
     value.add_argument("--digits", type=int, default=15, help="significant digits of the decimal (default 15)")
     value.add_argument("--latex", action="store_true", help="also print the LaTeX (both root styles)")
@@ -116,10 +115,45 @@ def _reorder_value_argv(argv: list[str]) -> list[str]:
     return ["value", *options, "--", *positionals]
 
 
+def _quick_value_call(argv: list[str]):
+    """The everyday ``value`` call, read without argparse (whose import costs start-up time).
+
+    Returns None for anything unusual (help, an unknown option, a malformed
+    number); argparse then reads the line and reports any mistake.
+    """
+    if not argv or argv[0] != "value":
+        return None
+    from types import SimpleNamespace
+
+    ns = SimpleNamespace(command="value", kind=None, args=[], digits=15, latex=False, json=False, max_j=None)
+    tokens = iter(argv[1:])
+    for token in tokens:
+        name, eq, text = token.partition("=")
+        if token in ("--latex", "--json"):
+            setattr(ns, token[2:], True)
+        elif name in _VALUE_FLAGS_WITH_ARG:
+            text = text if eq else next(tokens, "")
+            if not text.isdigit():
+                return None
+            setattr(ns, name[2:].replace("-", "_"), int(text))
+        elif token == "--":
+            continue
+        elif token.startswith("-") and not (len(token) > 1 and (token[1].isdigit() or token[1] == ".")):
+            return None
+        elif ns.kind is None:
+            ns.kind = token
+        else:
+            ns.args.append(token)
+    return ns if ns.kind in KINDS else None
+
+
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; return the exit status."""
     argv = list(sys.argv[1:] if argv is None else argv)
     try:
+        quick = _quick_value_call(argv)
+        if quick is not None:
+            return _run_value(quick)
         parser = _build_parser()
         ns = parser.parse_args(_reorder_value_argv(argv))
         if ns.command is None:
@@ -141,7 +175,7 @@ def main(argv: list[str] | None = None) -> int:
         return exc.code if isinstance(exc.code, int) else EXIT_OK
 
 
-def _run_value(ns: argparse.Namespace) -> int:
+def _run_value(ns) -> int:
     from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments, why_zero_doubled
     from .decimals import MAX_DIGITS
     from .notation import symbol_text
@@ -162,6 +196,8 @@ def _run_value(ns: argparse.Namespace) -> int:
     exact = str(value)
     decimal = value.decimal(ns.digits)
     if ns.json:
+        import json  # only here: the plain lookup stays as light as possible
+
         record = {
             "kind": ns.kind,
             "arguments": dict(zip(names, (_half(x) for x in t))),
@@ -200,7 +236,7 @@ def _range_option(family: str, text: str) -> dict | bool:
     return {"max_j": text}
 
 
-def _build_recipe(ns: argparse.Namespace):
+def _build_recipe(ns):
     from .errors import RecipeError
     from .recipe import DEFAULT_RECIPE, Recipe, load_recipe, recipe_from_mapping
 
@@ -230,7 +266,7 @@ def _build_recipe(ns: argparse.Namespace):
     return recipe
 
 
-def _run_build(ns: argparse.Namespace) -> int:
+def _run_build(ns) -> int:
     import signal
 
     from .build import build
@@ -265,7 +301,7 @@ def _raise_interrupt(signum, frame):  # pragma: no cover - signal handler
     raise KeyboardInterrupt
 
 
-def _run_verify(ns: argparse.Namespace) -> int:
+def _run_verify(ns) -> int:
     from .verify import verify_site
 
     report = verify_site(ns.folder)

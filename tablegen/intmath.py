@@ -198,7 +198,7 @@ def is_probable_prime(n: int) -> bool:
 def _trial(n: int) -> tuple[dict[int, int], int]:
     """Small-prime part of n as {prime: exponent} and the cofactor left over."""
     out: dict[int, int] = {}
-    for p in primes_upto(_TRIAL_BOUND):
+    for p in primes_upto(min(_TRIAL_BOUND, isqrt(n))):  # sieve no further than needed
         if p * p > n:
             break
         if n % p == 0:
