@@ -466,8 +466,9 @@ def _parse_threej(j1, j2, j3, m1, m2, m3, max_j) -> tuple[int, ...]:
     )
 
 
-#: The families by the names the command line and the data files use.
-FAMILIES = ("cg", "3j", "6j", "w", "9j")
+#: The kinds of symbol by the names the command line and the data files use
+#: (W is a kind of its own here; tables show it beside the 6j).
+KINDS = ("cg", "3j", "6j", "w", "9j")
 ARGUMENT_NAMES = {
     "cg": ("j1", "m1", "j2", "m2", "J", "M"),
     "3j": ("j1", "j2", "j3", "m1", "m2", "m3"),
@@ -481,7 +482,7 @@ def parse_arguments(kind: str, values, max_j: int | None = None) -> tuple[int, .
     """Doubled arguments of a family's symbol, checked (QuantumNumberError)."""
     names = ARGUMENT_NAMES.get(kind)
     if names is None:
-        raise ValueError(f"argument kind = {kind!r}: must be one of {', '.join(FAMILIES)}")
+        raise ValueError(f"argument kind = {kind!r}: must be one of {', '.join(KINDS)}")
     if len(values) != len(names):
         raise TypeError(f"{kind} takes {len(names)} arguments ({' '.join(names)}), got {len(values)}")
     if kind == "cg":
@@ -527,7 +528,7 @@ def why_zero_doubled(kind: str, t: tuple[int, ...]) -> str | None:
         if rule is None and _ninej_odd_swap_zero(t):
             rule = "symmetry: two equal rows or columns and an odd sum of all nine j"
     else:
-        raise ValueError(f"argument kind = {kind!r}: must be one of {', '.join(FAMILIES)}")
+        raise ValueError(f"argument kind = {kind!r}: must be one of {', '.join(KINDS)}")
     if rule is not None:
         return rule
     if DOUBLED[kind](*t):
