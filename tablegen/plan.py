@@ -16,7 +16,7 @@ from dataclasses import dataclass, field
 from functools import lru_cache
 from typing import Callable
 
-from .recipe import FAMILY_NAMES, FamilyRange, Recipe
+from .recipe import FamilyRange, Recipe
 from .spins import half_text
 from .symmetry import ninej_members, sixj_members
 
@@ -421,14 +421,6 @@ def _symbol_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]
 
 
 # -- the whole site ---------------------------------------------------------------
-STATIC_PAGES = (
-    ("index.html", "index"),
-    ("conventions.html", "conventions"),
-    ("methods.html", "methods"),
-    ("cite.html", "cite"),
-)
-
-
 def plan_site(recipe: Recipe) -> SitePlan:
     """Every page and table of the site the recipe asks for."""
     pages: list[Page] = [
@@ -461,6 +453,3 @@ def _check_unique(pages: list[Page], tables: list[Table]) -> None:
         if len(set(anchors)) != len(anchors):
             raise AssertionError(f"plan: duplicate anchor on {t.page}")
 
-
-def family_title(family: str) -> str:
-    return FAMILY_NAMES[family]
