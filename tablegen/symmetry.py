@@ -24,7 +24,7 @@ from __future__ import annotations
 from fractions import Fraction
 from itertools import permutations
 
-from .triads import sixj_quadrangle_sums, sixj_triad_sums
+from .triads import sixj_sums
 
 __all__ = [
     "threej_members",
@@ -106,7 +106,8 @@ def threej_canonical(*t: int) -> tuple[tuple[int, ...], int]:
 
 # -- 6j -----------------------------------------------------------------------
 def _sixj_sums(t: tuple[int, ...]) -> tuple[tuple[int, ...], tuple[int, ...]]:
-    return tuple(x // 2 for x in sixj_triad_sums(*t)), tuple(x // 2 for x in sixj_quadrangle_sums(*t))
+    s = sixj_sums(*t)
+    return tuple(x // 2 for x in s[:4]), tuple(x // 2 for x in s[4:])
 
 
 def _sixj_from_sums(al, be) -> tuple[int, ...]:

@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from typing import Sequence
 
-from ..spins import parse_j, parse_m
+from ..spins import parse_j
 from ..triads import triad_failure
 from . import ZeroRule
 
-__all__ = ["check_count", "parse_js", "parse_pairs", "triad_zero", "projection_zero", "first_triad_zero"]
+__all__ = ["check_count", "parse_js", "triad_zero", "projection_zero", "first_triad_zero"]
 
 _TRIAD_TEXT = {"triad-sum": "do not add up to an integer", "triangle": "violate the triangle rule"}
 
@@ -22,24 +22,7 @@ def check_count(key: str, names: Sequence[str], values: Sequence[object]) -> Non
 def parse_js(key: str, names: Sequence[str], values: Sequence[object], max_j: "int | None") -> tuple[int, ...]:
     """Doubled j's, one per name (QuantumNumberError naming the argument)."""
     check_count(key, names, values)
-    return tuple(parse_j(v, n, max_j) for n, v in zip(names, values))
-
-
-def parse_pairs(
-    key: str, names: Sequence[str], values: Sequence[object], pairs: Sequence[tuple[int, int]], max_j: "int | None"
-) -> tuple[int, ...]:
-    """Doubled arguments where ``pairs`` lists (j position, m position): each m is checked against its j.
-
-    The j's are parsed first, in order, then the m's, so an error names the
-    first bad j before any m (as people read a symbol).
-    """
-    check_count(key, names, values)
-    out: list[int] = [0] * len(names)
-    for j, _ in pairs:
-        out[j] = parse_j(values[j], names[j], max_j)
-    for j, m in pairs:
-        out[m] = parse_m(values[m], names[m], out[j], names[j], max_j)
-    return tuple(out)
+    return tuple([parse_j(v, n, max_j) for n, v in zip(names, values)])
 
 
 def triad_zero(ta: int, tb: int, tc: int, names: str) -> "ZeroRule | None":

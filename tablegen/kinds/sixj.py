@@ -16,7 +16,7 @@ from math import gcd
 from .. import intmath
 from ..intmath import factorials_upto, reduce_square
 from ..symmetry import sixj_members
-from ..triads import sixj_quadrangle_sums, sixj_triad_sums
+from ..triads import sixj_sums
 from ..values import Surd
 from . import Kind, Notation, ZeroRule
 from .common import first_triad_zero, parse_js
@@ -54,9 +54,8 @@ def w_of_sixj(t: tuple[int, ...]) -> tuple[tuple[int, ...], int]:
 # -- the Racah sum -----------------------------------------------------------------
 def sixj_invariants(ta: int, tb: int, tc: int, td: int, te: int, tf: int) -> tuple[tuple[int, ...], tuple[int, ...]]:
     """Sorted triad sums (4) and quadrangle sums (3) of a 6j, as integers (halves of the doubled sums)."""
-    al = sorted(s >> 1 for s in sixj_triad_sums(ta, tb, tc, td, te, tf))
-    be = sorted(s >> 1 for s in sixj_quadrangle_sums(ta, tb, tc, td, te, tf))
-    return tuple(al), tuple(be)
+    s = sixj_sums(ta, tb, tc, td, te, tf)
+    return tuple(sorted((s[0] >> 1, s[1] >> 1, s[2] >> 1, s[3] >> 1))), tuple(sorted((s[4] >> 1, s[5] >> 1, s[6] >> 1)))
 
 
 def sixj_racah_sum(al: tuple[int, ...], be: tuple[int, ...]) -> tuple[int, int, list[int], list[int]]:
@@ -113,12 +112,12 @@ _sixj_value_cached = lru_cache(maxsize=CACHE_ENTRIES)(_sixj_value)
 
 def sixj2(ta: int, tb: int, tc: int, td: int, te: int, tf: int) -> Surd:
     """{j1 j2 j3; j4 j5 j6} from doubled arguments."""
-    s1, s2, s3, s4 = sixj_triad_sums(ta, tb, tc, td, te, tf)
+    s1, s2, s3, s4, b1, b2, b3 = sixj_sums(ta, tb, tc, td, te, tf)
     if (s1 | s2 | s3 | s4) & 1:
         return _ZERO
     al = tuple(sorted((s1 >> 1, s2 >> 1, s3 >> 1, s4 >> 1)))
-    be = tuple(sorted(s >> 1 for s in sixj_quadrangle_sums(ta, tb, tc, td, te, tf)))
-    if be[0] < al[3]:  # the triangle rule of all four triads (triads.sixj_quadrangle_sums)
+    be = tuple(sorted((b1 >> 1, b2 >> 1, b3 >> 1)))
+    if be[0] < al[3]:  # the triangle rule of all four triads (see triads.sixj_sums)
         return _ZERO
     if be[2] <= _CACHE_MAX_TJ:  # a beta is a sum of four j's, so all are small here
         return _sixj_value_cached(al, be)
@@ -135,7 +134,7 @@ def racah_w2(ta: int, tb: int, tc: int, td: int, te: int, tf: int) -> Surd:
 # -- zero rules ---------------------------------------------------------------------
 _SIXJ_NAMES = ("j1", "j2", "j3", "j4", "j5", "j6")
 _W_NAMES = ("a", "b", "c", "d", "e", "f")
-_SIXJ_TRIADS = ((0, 1, 2), (0, 4, 5), (3, 1, 5), (3, 4, 2))  # the triads of sixj_triad_sums
+_SIXJ_TRIADS = ((0, 1, 2), (0, 4, 5), (3, 1, 5), (3, 4, 2))  # the triads of triads.sixj_sums, in its order
 _CANCELLATION = ZeroRule("cancellation", "every selection rule holds, but the Racah sum is exactly 0")
 
 

@@ -23,7 +23,8 @@ from ..symmetry import threej_members
 from ..triads import is_triad
 from ..values import Surd
 from . import Kind, Notation, ZeroRule
-from .common import first_triad_zero, parse_pairs, projection_zero
+from ..spins import parse_j, parse_m
+from .common import check_count, first_triad_zero, projection_zero
 
 __all__ = ["threej2", "cg2", "THREEJ", "CG", "CACHE_ENTRIES", "CACHE_MAX_J"]
 
@@ -177,11 +178,32 @@ def _cg_rule(t: tuple[int, ...]) -> "ZeroRule | None":
 
 
 def _parse_cg(values, max_j=None) -> tuple[int, ...]:
-    return parse_pairs("cg", _CG_NAMES, values, ((0, 1), (2, 3), (4, 5)), max_j)
+    """Doubled (j1, m1, j2, m2, J, M): the j's first, then each m against its j."""
+    check_count("cg", _CG_NAMES, values)
+    j1, m1, j2, m2, J, M = values
+    tj1 = parse_j(j1, "j1", max_j)
+    tj2 = parse_j(j2, "j2", max_j)
+    tJ = parse_j(J, "J", max_j)
+    return (
+        tj1, parse_m(m1, "m1", tj1, "j1", max_j),
+        tj2, parse_m(m2, "m2", tj2, "j2", max_j),
+        tJ, parse_m(M, "M", tJ, "J", max_j),
+    )
 
 
 def _parse_threej(values, max_j=None) -> tuple[int, ...]:
-    return parse_pairs("3j", _THREEJ_NAMES, values, ((0, 3), (1, 4), (2, 5)), max_j)
+    """Doubled (j1, j2, j3, m1, m2, m3): the j's first, then each m against its j."""
+    check_count("3j", _THREEJ_NAMES, values)
+    j1, j2, j3, m1, m2, m3 = values
+    tj1 = parse_j(j1, "j1", max_j)
+    tj2 = parse_j(j2, "j2", max_j)
+    tj3 = parse_j(j3, "j3", max_j)
+    return (
+        tj1, tj2, tj3,
+        parse_m(m1, "m1", tj1, "j1", max_j),
+        parse_m(m2, "m2", tj2, "j2", max_j),
+        parse_m(m3, "m3", tj3, "j3", max_j),
+    )
 
 
 _CANCELLATION = ZeroRule("cancellation", "every selection rule holds, but the Racah sum is exactly 0")
