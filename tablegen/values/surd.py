@@ -7,6 +7,10 @@ The value is canonical at construction, so ``==`` and ``hash`` compare the
 stored parts; a value that happens to be rational equals, and hashes like, the
 same ``int`` or ``Fraction``.
 
+Products, quotients and integer powers stay Surds; a sum or difference is an
+:class:`~tablegen.values.exact_sum.ExactSum` (always that type; it equals
+the Surd when it has a single term).
+
 ``str()`` and ``repr()`` are part of the data format (they are written into
 checksummed files): change them only on purpose.
 """
@@ -20,6 +24,7 @@ from math import gcd, isqrt
 from .. import intmath
 
 __all__ = ["Surd"]
+
 
 def _as_fraction(x: object) -> Fraction | None:
     """int, Fraction or any numbers.Rational (sympy's too) as a Fraction."""
