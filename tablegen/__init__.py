@@ -1,12 +1,13 @@
 """tablegen: exact angular-momentum coupling coefficients and reference tables.
 
 Condon-Shortley phase convention throughout.  Every function returns a
-:class:`Surd`, an exact number sign * sqrt(p/q).
+:class:`Surd`, an exact number sign * sqrt(p/q); sums of them are
+:class:`ExactSum` values, and :func:`phase` gives (-1)**x as an int.
 """
 
 from .coefficients import cg, ninej, racah_w, sixj, threej, why_zero
 from .errors import QuantumNumberError, TablegenError
-from .surd import Surd
+from .values import ExactSum, Surd, phase
 
 __version__ = "0.1.0"
 
@@ -18,6 +19,8 @@ __all__ = [
     "ninej",
     "why_zero",
     "Surd",
+    "ExactSum",
+    "phase",
     "TablegenError",
     "QuantumNumberError",
     "__version__",

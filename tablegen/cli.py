@@ -177,7 +177,7 @@ def main(argv: list[str] | None = None) -> int:
 
 def _run_value(ns) -> int:
     from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments, why_zero_doubled
-    from .decimals import MAX_DIGITS
+    from .values.decimals import MAX_DIGITS
     from .notation import symbol_text
 
     names = ARGUMENT_NAMES[ns.kind]

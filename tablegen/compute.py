@@ -15,7 +15,7 @@ from typing import Callable, Iterator
 
 from .coefficients import DOUBLED
 from .plan import SitePlan
-from .surd import Surd
+from .values import Surd
 
 __all__ = ["Shown", "ValueBook", "compute_values", "wanted_keys", "show"]
 

@@ -9,12 +9,15 @@ about N**2 * 0.6 bytes (N = 4002 for j = 1000: ~10 MB).
 
 from __future__ import annotations
 
-from math import gcd, isqrt
+from bisect import bisect_right
+from math import isqrt
 
 __all__ = [
+    "GCD_PATH_MAX",
     "int_text",
     "is_probable_prime",
     "factorial",
+    "factorials_upto",
     "primes_upto",
     "factorial_exponent",
     "reduce_square",
@@ -26,9 +29,10 @@ _FACTORIALS: list[int] = [1]
 _PRIMES: list[int] = []
 _SIEVE_LIMIT = 1
 
-# Above this factorial argument, reducing p/q through prime exponents is faster
-# than one gcd of the multiplied-out integers (measured on CPython 3.11).
-_PRIME_PATH_THRESHOLD = 400
+#: Up to this largest factorial argument, one gcd of the multiplied-out integers
+#: reduces p/q faster than prime exponents do (measured on CPython 3.11): the
+#: formulas take that path themselves and call reduce_square only above it.
+GCD_PATH_MAX = 400
 
 
 def factorial(n: int) -> int:
@@ -40,6 +44,18 @@ def factorial(n: int) -> int:
             value *= i
             table.append(value)
     return table[n]
+
+
+def factorials_upto(n: int) -> list[int]:
+    """The factorial table, grown so that table[k] = k! for every k <= n.
+
+    The list itself is returned (not a copy) for the formulas' inner loops:
+    read it, never change it.
+    """
+    table = _FACTORIALS
+    if n >= len(table):
+        factorial(n)
+    return table
 
 
 def primes_upto(n: int) -> list[int]:
@@ -56,15 +72,7 @@ def primes_upto(n: int) -> list[int]:
         _SIEVE_LIMIT = limit
     if n >= _SIEVE_LIMIT:
         return _PRIMES
-    # bisect by hand to avoid importing bisect on the startup path
-    lo, hi = 0, len(_PRIMES)
-    while lo < hi:
-        mid = (lo + hi) // 2
-        if _PRIMES[mid] <= n:
-            lo = mid + 1
-        else:
-            hi = mid
-    return _PRIMES[:lo]
+    return _PRIMES[: bisect_right(_PRIMES, n)]
 
 
 def factorial_exponent(n: int, p: int) -> int:
@@ -87,29 +95,14 @@ def reduce_square(
 
         (num * prod(twice_up!) / prod(twice_down!))**2 * prod(once_up!) / prod(once_down!)
 
-    The coefficient formulas all end here: the square of a value is the square
-    of an integer Racah sum times a ratio of factorials.  Small cases multiply
-    out and take one gcd; large ones work with prime exponents (Legendre's
-    formula), so that the huge factorials are never multiplied out in full.
+    The coefficient formulas end here for large arguments (above GCD_PATH_MAX;
+    below it they multiply out and take one gcd themselves): the square of a
+    value is the square of an integer Racah sum times a ratio of factorials,
+    and working with prime exponents (Legendre's formula) never multiplies the
+    huge factorials out in full.
     """
     top = max(max(once_up, default=0), max(once_down, default=0),
               max(twice_up, default=0), max(twice_down, default=0))
-    if top <= _PRIME_PATH_THRESHOLD:
-        fact = factorial
-        n = num
-        for k in twice_up:
-            n *= fact(k)
-        p = n * n
-        for k in once_up:
-            p *= fact(k)
-        d = 1
-        for k in twice_down:
-            d *= fact(k)
-        q = d * d
-        for k in once_down:
-            q *= fact(k)
-        g = gcd(p, q)
-        return p // g, q // g
     num = abs(num)
     num_pos: list[int] = []
     den_pos: list[int] = []

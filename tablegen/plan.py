@@ -331,8 +331,7 @@ def _pair_pages(recipe: Recipe, family: str) -> tuple[list[Page], list[Table]]:
 
 
 # -- 6j and 9j -------------------------------------------------------------------
-def _triangle(a: int, b: int, c: int) -> bool:
-    return not (a + b + c) & 1 and abs(a - b) <= c <= a + b
+from .triads import is_triad as _triangle  # noqa: E402  (the one triad rule)
 
 
 def sixj_symbols(f: FamilyRange):

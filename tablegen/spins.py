@@ -8,7 +8,7 @@ else with a :class:`~tablegen.errors.QuantumNumberError`.
 
 Selection rules are not errors: a triangle that fails, a triad whose sum is
 not an integer, m's that do not add up or |m| > j make a coefficient exactly
-zero, and the functions here say which rule did it.
+zero (triads.py and kinds/ say which rule did it).
 """
 
 from __future__ import annotations
@@ -23,8 +23,6 @@ __all__ = [
     "parse_j",
     "parse_m",
     "half_text",
-    "triad_rule",
-    "projection_rule",
 ]
 
 #: Largest j accepted unless the caller raises the limit explicitly (max_j=...);
@@ -144,22 +142,3 @@ def parse_m(value: object, argument: str, tj: int, j_argument: str, max_j: int |
 def half_text(t: int) -> str:
     """Text for t/2: '3/2', '-1/2', '2'."""
     return str(t // 2) if t % 2 == 0 else f"{t}/2"
-
-
-def triad_rule(ta: int, tb: int, tc: int, names: str) -> str | None:
-    """Why the triad (a, b, c) forbids a coupling, or None if it is allowed."""
-    if (ta + tb + tc) % 2:
-        return f"triad-sum: {names} do not add up to an integer"
-    if not abs(ta - tb) <= tc <= ta + tb:
-        return f"triangle: {names} violate the triangle rule"
-    return None
-
-
-def projection_rule(pairs: tuple[tuple[int, int, str], ...], total: int, sum_text: str) -> str | None:
-    """Why the projections forbid a coupling: |m| > j, or the m's do not add up."""
-    for tj, tm, name in pairs:
-        if abs(tm) > tj:
-            return f"m-range: |{name}| > its j"
-    if total:
-        return f"m-sum: {sum_text}"
-    return None

@@ -24,6 +24,8 @@ from __future__ import annotations
 from fractions import Fraction
 from itertools import permutations
 
+from .triads import sixj_sums
+
 __all__ = [
     "threej_members",
     "threej_canonical",
@@ -35,6 +37,7 @@ __all__ = [
     "canonical",
     "symmetry_class",
     "canonical_form",
+    "square_images",
 ]
 
 def _perm_parity(p: tuple[int, ...]) -> int:
@@ -43,6 +46,23 @@ def _perm_parity(p: tuple[int, ...]) -> int:
 
 
 _PERMS3 = tuple((p, _perm_parity(p)) for p in permutations(range(3)))
+
+
+def square_images(square) -> list[tuple[tuple[tuple[int, ...], ...], int]]:
+    """The 72 images of a 3x3 square under row and column permutations and transposition.
+
+    Each image comes with the parity (0 or 1) of its permutations; transposing
+    adds none.  The identity comes first.  Both the 3j (as its Regge square)
+    and the 9j take their classes from this one helper.
+    """
+    out = []
+    for rows, rpar in _PERMS3:
+        for cols, cpar in _PERMS3:
+            sq = tuple(tuple(square[rows[a]][cols[b]] for b in range(3)) for a in range(3))
+            parity = (rpar + cpar) & 1
+            out.append((sq, parity))
+            out.append((tuple(zip(*sq)), parity))
+    return out
 
 
 # -- 3j -----------------------------------------------------------------------
@@ -68,32 +88,26 @@ def threej_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
     |m| <= j; outside those the symbol is zero and has no Regge square.
     """
     r = _regge_square(t)
-    big_j = sum(r[0])
-    odd_sign = -1 if big_j & 1 else 1
+    odd_sign = -1 if sum(r[0]) & 1 else 1
     seen: dict[tuple[int, ...], int] = {}
-    for rows, rpar in _PERMS3:
-        for cols, cpar in _PERMS3:
-            sq = tuple(tuple(r[rows[a]][cols[b]] for b in range(3)) for a in range(3))
-            sign = odd_sign if (rpar + cpar) & 1 else 1
-            for square in (sq, tuple(zip(*sq))):
-                seen.setdefault(_from_regge(square), sign)
+    for square, odd in square_images(r):
+        seen.setdefault(_from_regge(square), odd_sign if odd else 1)
     return sorted(seen.items(), reverse=True)
 
 
 def threej_canonical(*t: int) -> tuple[tuple[int, ...], int]:
-    """(canonical arguments, sign) with value(t) = sign * value(canonical)."""
-    members = threej_members(*t)
-    canon, canon_sign = members[0]
-    own = dict(members)[tuple(t)]
-    return canon, own * canon_sign
+    """(canonical arguments, sign) with value(t) = sign * value(canonical).
+
+    members[0] is (canonical, s) with value(canonical) = s * value(t), and s is
+    +-1, so value(t) = s * value(canonical) as well.
+    """
+    return threej_members(*t)[0]
 
 
 # -- 6j -----------------------------------------------------------------------
 def _sixj_sums(t: tuple[int, ...]) -> tuple[tuple[int, ...], tuple[int, ...]]:
-    a, b, c, d, e, f = t
-    al = ((a + b + c) // 2, (a + e + f) // 2, (d + b + f) // 2, (d + e + c) // 2)
-    be = ((a + b + d + e) // 2, (a + c + d + f) // 2, (b + c + e + f) // 2)
-    return al, be
+    s = sixj_sums(*t)
+    return tuple(x // 2 for x in s[:4]), tuple(x // 2 for x in s[4:])
 
 
 def _sixj_from_sums(al, be) -> tuple[int, ...]:
@@ -135,20 +149,14 @@ def ninej_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
     rows = (t[0:3], t[3:6], t[6:9])
     odd_sign = -1 if (sum(t) // 2) & 1 else 1
     seen: dict[tuple[int, ...], int] = {}
-    for rp, rpar in _PERMS3:
-        for cp, cpar in _PERMS3:
-            m = tuple(tuple(rows[rp[a]][cp[b]] for b in range(3)) for a in range(3))
-            sign = odd_sign if (rpar + cpar) & 1 else 1
-            for square in (m, tuple(zip(*m))):
-                seen.setdefault(tuple(x for row in square for x in row), sign)
+    for square, odd in square_images(rows):
+        seen.setdefault(tuple(x for row in square for x in row), odd_sign if odd else 1)
     return sorted(seen.items(), reverse=True)
 
 
 def ninej_canonical(*t: int) -> tuple[tuple[int, ...], int]:
-    """(canonical arguments, sign) with value(t) = sign * value(canonical)."""
-    members = ninej_members(*t)
-    canon, canon_sign = members[0]
-    return canon, dict(members)[tuple(t)] * canon_sign
+    """(canonical arguments, sign) with value(t) = sign * value(canonical) (see threej_canonical)."""
+    return ninej_members(*t)[0]
 
 
 _MEMBERS = {"3j": threej_members, "6j": sixj_members, "9j": ninej_members}
@@ -165,15 +173,17 @@ def canonical(kind: str, *t: int) -> tuple[tuple[int, ...], int]:
     return _CANONICAL[kind](*t)
 
 
-def _allowed_doubled(kind: str, values: tuple, max_j: int | None) -> tuple[int, ...]:
-    from .coefficients import DOUBLED, parse_arguments, why_zero_doubled
+def _allowed_doubled(key: str, values: tuple, max_j: int | None) -> tuple[int, ...]:
+    from .kinds import KINDS
 
-    if kind not in _MEMBERS:
-        raise ValueError(f"argument kind = {kind!r}: must be one of 3j, 6j, 9j")
-    t = parse_arguments(kind, values, max_j)
-    rule = why_zero_doubled(kind, t) if not DOUBLED[kind](*t) else None
-    if rule and not rule.startswith(("cancellation", "parity", "symmetry")):
-        raise ValueError(f"the {kind} symbol is zero by a selection rule ({rule}); it has no symmetry class")
+    with_class = {k.key: k for k in KINDS if k.members is not None}
+    if key not in with_class:
+        raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(with_class)}")
+    k = with_class[key]
+    t = k.parse(values, max_j)
+    rule = k.zero_rule(t)
+    if rule and rule.id not in ("cancellation", "parity", "symmetry"):
+        raise ValueError(f"the {key} symbol is zero by a selection rule ({rule}); it has no symmetry class")
     return t
 
 

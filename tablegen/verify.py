@@ -20,7 +20,7 @@ from .notation import symbol_text
 from .output import MANIFEST, SUMS, sha256_hex
 from .recipe import MAX_DIGITS
 from .render.data import TABLE_FORMAT
-from .surd import Surd
+from .values import Surd
 
 __all__ = ["verify_site", "Report"]
 

@@ -22,7 +22,7 @@ from tablegen.compute import Shown, compute_values
 from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.render.data import canonical_values
-from tablegen.surd import Surd
+from tablegen.values import Surd
 
 REPO = Path(__file__).resolve().parent.parent
 SMALL = {"cg": {"max_j": 1}, "3j": {"max_j": "1/2"}, "6j": {"max_j": 1}, "9j": {"max_j": "1/2"}}

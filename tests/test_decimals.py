@@ -26,7 +26,7 @@ from math import isqrt
 import pytest
 
 from tablegen import Surd
-from tablegen.decimals import MAX_DIGITS
+from tablegen.values.decimals import MAX_DIGITS
 
 _TEXT = re.compile(r"^(-?)(\d+)(?:\.(\d+))?(?:e([+-])([1-9]\d*))?$")
 

@@ -1,8 +1,10 @@
 """Published identities, checked exactly over whole small ranges and, with
 hypothesis, at larger j.
 
-Sums of values are taken with the ``exact_sum`` fixture (conftest.py): every
-term is +-sqrt(rational), grouped by square class, so nothing is rounded.
+Sums of values are taken with tablegen's ExactSum: a rational combination of
+square roots of square-free integers in one canonical form, unique because
+such roots are linearly independent over the rationals (Besicovitch 1940),
+so a sum equals 0 or a Surd exactly and nothing is rounded.
 
 Identities (sources beside each test):
 * orthogonality of CG coefficients and of 3j symbols (both sums),
@@ -20,6 +22,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from tablegen.coefficients import cg2, ninej2, racah_w2, sixj2, threej2
+from tablegen.values import ExactSum
 
 # deterministic, no example database written into the checkout
 PROPERTY = dict(deadline=None, derandomize=True, database=None)
@@ -52,58 +55,58 @@ def partner_of(draw, ta: int, tb: int, top: int):
 # (unitarity of the coupling, Condon & Shortley 1935, ch. III; NIST DLMF §34.3(iv)
 # for the 3j form)
 # ---------------------------------------------------------------------------
-def cg_sum_over_m(exact_sum, tj1, tj2, tJ, tK, tM):
+def cg_sum_over_m(tj1, tj2, tJ, tK, tM):
     """sum_m1 <j1 m1; j2 M-m1 | J M> <j1 m1; j2 M-m1 | K M>."""
-    s = exact_sum()
+    s = ExactSum()
     for tm1 in range(-tj1, tj1 + 1, 2):
         tm2 = tM - tm1
         if abs(tm2) <= tj2:
-            s.add(cg2(tj1, tm1, tj2, tm2, tJ, tM) * cg2(tj1, tm1, tj2, tm2, tK, tM))
-    return s.total()
+            s += cg2(tj1, tm1, tj2, tm2, tJ, tM) * cg2(tj1, tm1, tj2, tm2, tK, tM)
+    return s
 
 
-def cg_sum_over_j(exact_sum, tj1, tj2, tm1, tn1, tM):
+def cg_sum_over_j(tj1, tj2, tm1, tn1, tM):
     """sum_J <j1 m1; j2 M-m1 | J M> <j1 n1; j2 M-n1 | J M>."""
-    s = exact_sum()
+    s = ExactSum()
     for tJ in triads(tj1, tj2):
-        s.add(cg2(tj1, tm1, tj2, tM - tm1, tJ, tM) * cg2(tj1, tn1, tj2, tM - tn1, tJ, tM))
-    return s.total()
+        s += cg2(tj1, tm1, tj2, tM - tm1, tJ, tM) * cg2(tj1, tn1, tj2, tM - tn1, tJ, tM)
+    return s
 
 
-def test_cg_orthogonality_for_all_j_up_to_3(exact_sum):
+def test_cg_orthogonality_for_all_j_up_to_3():
     checked = 0
     for tj1, tj2 in itertools.product(range(7), repeat=2):
         allowed = triads(tj1, tj2)
         for tJ, tK in itertools.product(allowed, repeat=2):
             for tM in range(-min(tJ, tK), min(tJ, tK) + 1, 2):
-                assert cg_sum_over_m(exact_sum, tj1, tj2, tJ, tK, tM) == (tJ == tK), (tj1, tj2, tJ, tK, tM)
+                assert cg_sum_over_m(tj1, tj2, tJ, tK, tM) == (tJ == tK), (tj1, tj2, tJ, tK, tM)
                 checked += 1
         for tm1, tn1 in itertools.product(range(-tj1, tj1 + 1, 2), repeat=2):
             for tm2 in range(-tj2, tj2 + 1, 2):
                 tM = tm1 + tm2
                 if abs(tM - tn1) <= tj2:
-                    assert cg_sum_over_j(exact_sum, tj1, tj2, tm1, tn1, tM) == (tm1 == tn1), (tj1, tj2, tm1, tn1)
+                    assert cg_sum_over_j(tj1, tj2, tm1, tn1, tM) == (tm1 == tn1), (tj1, tj2, tm1, tn1)
                     checked += 1
     assert checked > 3000
 
 
-def test_threej_orthogonality_for_all_j_up_to_5_2(exact_sum):
+def test_threej_orthogonality_for_all_j_up_to_5_2():
     # sum_{m1 m2} (2 j3 + 1) (j1 j2 j3; m1 m2 m3)(j1 j2 j3'; m1 m2 m3') = delta delta
     # sum_{j3 m3} (2 j3 + 1) (j1 j2 j3; m1 m2 m3)(j1 j2 j3; m1' m2' m3) = delta delta
     for tj1, tj2 in itertools.product(range(6), repeat=2):
         for tj3, tk3 in itertools.product(triads(tj1, tj2), repeat=2):
             for tm3, tn3 in itertools.product(range(-tj3, tj3 + 1, 2), range(-tk3, tk3 + 1, 2)):
-                s = exact_sum()
+                s = ExactSum()
                 for tm1, tm2 in itertools.product(range(-tj1, tj1 + 1, 2), range(-tj2, tj2 + 1, 2)):
-                    s.add(threej2(tj1, tj2, tj3, tm1, tm2, tm3) * threej2(tj1, tj2, tk3, tm1, tm2, tn3), tj3 + 1)
-                assert s.total() == (tj3 == tk3 and tm3 == tn3), (tj1, tj2, tj3, tk3, tm3, tn3)
+                    s += (threej2(tj1, tj2, tj3, tm1, tm2, tm3) * threej2(tj1, tj2, tk3, tm1, tm2, tn3)) * (tj3 + 1)
+                assert s == (tj3 == tk3 and tm3 == tn3), (tj1, tj2, tj3, tk3, tm3, tn3)
         ms = list(itertools.product(range(-tj1, tj1 + 1, 2), range(-tj2, tj2 + 1, 2)))
         for (tm1, tm2), (tn1, tn2) in itertools.product(ms, repeat=2):
-            s = exact_sum()
+            s = ExactSum()
             for tj3 in triads(tj1, tj2):
                 for tm3 in range(-tj3, tj3 + 1, 2):
-                    s.add(threej2(tj1, tj2, tj3, tm1, tm2, tm3) * threej2(tj1, tj2, tj3, tn1, tn2, tm3), tj3 + 1)
-            assert s.total() == ((tm1, tm2) == (tn1, tn2)), (tj1, tj2, tm1, tm2, tn1, tn2)
+                    s += (threej2(tj1, tj2, tj3, tm1, tm2, tm3) * threej2(tj1, tj2, tj3, tn1, tn2, tm3)) * (tj3 + 1)
+            assert s == ((tm1, tm2) == (tn1, tn2)), (tj1, tj2, tm1, tm2, tn1, tn2)
 
 
 @st.composite
@@ -119,11 +122,11 @@ def cg_orthogonality_cases(draw, top=60):
 
 @settings(max_examples=150, **PROPERTY)
 @given(cg_orthogonality_cases())
-def test_cg_orthogonality_up_to_j_30(exact_sum, case):
+def test_cg_orthogonality_up_to_j_30(case):
     # both orthogonality sums (Condon & Shortley 1935, ch. III), j1, j2 <= 30
     tj1, tj2, tJ, tK, tM, tm1, tn1 = case
-    assert cg_sum_over_m(exact_sum, tj1, tj2, tJ, tK, tM) == (tJ == tK)
-    assert cg_sum_over_j(exact_sum, tj1, tj2, tm1, tn1, tM) == (tm1 == tn1)
+    assert cg_sum_over_m(tj1, tj2, tJ, tK, tM) == (tJ == tK)
+    assert cg_sum_over_j(tj1, tj2, tm1, tn1, tM) == (tm1 == tn1)
 
 
 # ---------------------------------------------------------------------------
@@ -131,19 +134,19 @@ def test_cg_orthogonality_up_to_j_30(exact_sum, case):
 #   sum_x (2x + 1)(2f + 1) {a b x; c d f}{a b x; c d f'} = delta(f, f')
 # for (a d f), (c b f), (a d f'), (c b f') triads.
 # ---------------------------------------------------------------------------
-def sixj_orthogonality_sum(exact_sum, a, b, c, d, f, g):
-    s = exact_sum()
+def sixj_orthogonality_sum(a, b, c, d, f, g):
+    s = ExactSum()
     for x in triads(a, b):
-        s.add(sixj2(a, b, x, c, d, f) * sixj2(a, b, x, c, d, g), (x + 1) * (f + 1))
-    return s.total()
+        s += (sixj2(a, b, x, c, d, f) * sixj2(a, b, x, c, d, g)) * ((x + 1) * (f + 1))
+    return s
 
 
-def test_sixj_orthogonality_for_all_j_up_to_5_2(exact_sum):
+def test_sixj_orthogonality_for_all_j_up_to_5_2():
     checked = 0
     for a, b, c, d in itertools.product(range(6), repeat=4):
         fs = [f for f in triads(a, d) if is_triad(c, b, f)]
         for f, g in itertools.product(fs, repeat=2):
-            assert sixj_orthogonality_sum(exact_sum, a, b, c, d, f, g) == (f == g), (a, b, c, d, f, g)
+            assert sixj_orthogonality_sum(a, b, c, d, f, g) == (f == g), (a, b, c, d, f, g)
             checked += 1
     assert checked > 2000
 
@@ -162,9 +165,9 @@ def sixj_orthogonality_cases(draw, top=60):
 
 @settings(max_examples=100, **PROPERTY)
 @given(sixj_orthogonality_cases())
-def test_sixj_orthogonality_up_to_j_30(exact_sum, case):
+def test_sixj_orthogonality_up_to_j_30(case):
     a, b, c, d, f, g = case
-    assert sixj_orthogonality_sum(exact_sum, a, b, c, d, f, g) == (f == g)
+    assert sixj_orthogonality_sum(a, b, c, d, f, g) == (f == g)
 
 
 # ---------------------------------------------------------------------------
@@ -173,15 +176,14 @@ def test_sixj_orthogonality_up_to_j_30(exact_sum, case):
 #       {j1 j2 j12; j3 j4 j34; j13 j24 j}{j1 j2 j12; j3 j4 j34; j13' j24' j}
 #   = delta(j13, j13') delta(j24, j24')
 # ---------------------------------------------------------------------------
-def ninej_orthogonality_sum(exact_sum, j1, j2, j3, j4, j, k13, k24, l13, l24):
-    s = exact_sum()
+def ninej_orthogonality_sum(j1, j2, j3, j4, j, k13, k24, l13, l24):
+    s = ExactSum()
     for j12 in triads(j1, j2):
         for j34 in triads(j3, j4):
-            s.add(
-                ninej2(j1, j2, j12, j3, j4, j34, k13, k24, j) * ninej2(j1, j2, j12, j3, j4, j34, l13, l24, j),
-                (j12 + 1) * (j34 + 1) * (k13 + 1) * (k24 + 1),
-            )
-    return s.total()
+            s += (
+                ninej2(j1, j2, j12, j3, j4, j34, k13, k24, j) * ninej2(j1, j2, j12, j3, j4, j34, l13, l24, j)
+            ) * ((j12 + 1) * (j34 + 1) * (k13 + 1) * (k24 + 1))
+    return s
 
 
 def coupled_pairs(j1, j2, j3, j4, j):
@@ -189,13 +191,13 @@ def coupled_pairs(j1, j2, j3, j4, j):
     return [(x, y) for x in triads(j1, j3) for y in triads(j2, j4) if is_triad(x, y, j)]
 
 
-def test_ninej_orthogonality_for_small_j(exact_sum):
+def test_ninej_orthogonality_for_small_j():
     checked = 0
     for j1, j2, j3, j4 in itertools.product(range(4), repeat=4):
         for j in range(0, j1 + j2 + j3 + j4 + 1):
             pairs = coupled_pairs(j1, j2, j3, j4, j)
             for (k13, k24), (l13, l24) in itertools.product(pairs, repeat=2):
-                got = ninej_orthogonality_sum(exact_sum, j1, j2, j3, j4, j, k13, k24, l13, l24)
+                got = ninej_orthogonality_sum(j1, j2, j3, j4, j, k13, k24, l13, l24)
                 assert got == ((k13, k24) == (l13, l24)), (j1, j2, j3, j4, j, k13, k24, l13, l24)
                 checked += 1
     assert checked > 5000
@@ -212,28 +214,28 @@ def ninej_orthogonality_cases(draw, top=16):
 
 @settings(max_examples=40, **PROPERTY)
 @given(ninej_orthogonality_cases())
-def test_ninej_orthogonality_up_to_j_8(exact_sum, case):
+def test_ninej_orthogonality_up_to_j_8(case):
     j1, j2, j3, j4, j, k13, k24, l13, l24 = case
-    assert ninej_orthogonality_sum(exact_sum, *case) == ((k13, k24) == (l13, l24))
+    assert ninej_orthogonality_sum(*case) == ((k13, k24) == (l13, l24))
 
 
 # ---------------------------------------------------------------------------
 # Racah's sum rule (NIST DLMF §34.5(vi); Edmonds 1957, §6.2):
 #   sum_x (-1)**(p+q+x) (2x+1) {a b x; c d p}{a b x; d c q} = {a c q; b d p}
 # ---------------------------------------------------------------------------
-def racah_sum_rule_sides(exact_sum, a, b, c, d, p, q):
-    s = exact_sum()
+def racah_sum_rule_sides(a, b, c, d, p, q):
+    s = ExactSum()
     for x in triads(a, b):
         term = sixj2(a, b, x, c, d, p) * sixj2(a, b, x, d, c, q)
         if term:
-            s.add(term, phase(p + q + x) * (x + 1))
-    return s.total(), sixj2(a, c, q, b, d, p)
+            s += (term) * (phase(p + q + x) * (x + 1))
+    return s, sixj2(a, c, q, b, d, p)
 
 
-def test_racah_sum_rule_for_all_j_up_to_2(exact_sum):
+def test_racah_sum_rule_for_all_j_up_to_2():
     nonzero = 0
     for a, b, c, d, p, q in itertools.product(range(5), repeat=6):
-        lhs, rhs = racah_sum_rule_sides(exact_sum, a, b, c, d, p, q)
+        lhs, rhs = racah_sum_rule_sides(a, b, c, d, p, q)
         assert lhs == rhs, (a, b, c, d, p, q)
         nonzero += bool(rhs)
     assert nonzero > 500
@@ -250,8 +252,8 @@ def racah_sum_rule_cases(draw, top=60):
 
 @settings(max_examples=100, **PROPERTY)
 @given(racah_sum_rule_cases())
-def test_racah_sum_rule_up_to_j_30(exact_sum, case):
-    lhs, rhs = racah_sum_rule_sides(exact_sum, *case)
+def test_racah_sum_rule_up_to_j_30(case):
+    lhs, rhs = racah_sum_rule_sides(*case)
     assert lhs == rhs
 
 
@@ -260,20 +262,20 @@ def test_racah_sum_rule_up_to_j_30(exact_sum, case):
 #   sum_x (-1)**(S+x) (2x+1) {a b x; c d p}{c d x; e f q}{e f x; b a r}
 #       = {p q r; e a d}{p q r; f b c},   S = a+b+c+d+e+f+p+q+r
 # ---------------------------------------------------------------------------
-def biedenharn_elliott_sides(exact_sum, a, b, c, d, e, f, p, q, r):
+def biedenharn_elliott_sides(a, b, c, d, e, f, p, q, r):
     total = a + b + c + d + e + f + p + q + r
-    s = exact_sum()
+    s = ExactSum()
     for x in triads(a, b):
         term = sixj2(a, b, x, c, d, p) * sixj2(c, d, x, e, f, q) * sixj2(e, f, x, b, a, r)
         if term:
-            s.add(term, phase(total + x) * (x + 1))
-    return s.total(), sixj2(p, q, r, e, a, d) * sixj2(p, q, r, f, b, c)
+            s += (term) * (phase(total + x) * (x + 1))
+    return s, sixj2(p, q, r, e, a, d) * sixj2(p, q, r, f, b, c)
 
 
-def test_biedenharn_elliott_for_all_j_up_to_1(exact_sum):
+def test_biedenharn_elliott_for_all_j_up_to_1():
     nonzero = 0
     for t in itertools.product(range(3), repeat=9):
-        lhs, rhs = biedenharn_elliott_sides(exact_sum, *t)
+        lhs, rhs = biedenharn_elliott_sides(*t)
         assert lhs == rhs, t
         nonzero += bool(rhs)
     assert nonzero > 200
@@ -295,8 +297,8 @@ def biedenharn_elliott_cases(draw, top=40):
 
 @settings(max_examples=100, **PROPERTY)
 @given(biedenharn_elliott_cases())
-def test_biedenharn_elliott_up_to_j_20(exact_sum, case):
-    lhs, rhs = biedenharn_elliott_sides(exact_sum, *case)
+def test_biedenharn_elliott_up_to_j_20(case):
+    lhs, rhs = biedenharn_elliott_sides(*case)
     assert lhs == rhs
 
 
@@ -318,14 +320,14 @@ def ninej_cases(draw, top=24):
 
 @settings(max_examples=60, **PROPERTY)
 @given(ninej_cases())
-def test_ninej_is_a_sum_of_sixj_products(exact_sum, t):
+def test_ninej_is_a_sum_of_sixj_products(t):
     j11, j12, j13, j21, j22, j23, j31, j32, j33 = t
-    s = exact_sum()
+    s = ExactSum()
     for x in range(0, 2 * max(t) + 1):
         term = sixj2(j11, j21, j31, j32, j33, x) * sixj2(j12, j22, j32, j21, x, j23) * sixj2(j13, j23, j33, x, j11, j12)
         if term:
-            s.add(term, (1 if x % 2 == 0 else -1) * (x + 1))
-    assert s.total() == ninej2(*t)
+            s += (term) * ((1 if x % 2 == 0 else -1) * (x + 1))
+    assert s == ninej2(*t)
 
 
 # ---------------------------------------------------------------------------

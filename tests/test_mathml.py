@@ -21,7 +21,7 @@ from tablegen.recipe import FamilyRange
 from tablegen.render import mathml
 from tablegen.render.markdown_pages import render_markdown, render_text_page
 from tablegen.spins import half_text
-from tablegen.surd import Surd
+from tablegen.values import Surd
 
 MINUS = "\u2212"
 

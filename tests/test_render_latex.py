@@ -23,7 +23,7 @@ from tablegen.compute import compute_values
 from tablegen.plan import plan_site
 from tablegen.recipe import DEFAULT_RECIPE, recipe_from_mapping
 from tablegen.render.latex import DOCUMENT_PACKAGES, FRAGMENT_PACKAGES, render_latex, tex_text
-from tablegen.surd import Surd
+from tablegen.values import Surd
 
 # Every special character of LaTeX, a command that would end the document,
 # ligature pairs and characters the default fonts lack.

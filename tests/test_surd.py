@@ -232,7 +232,7 @@ def test_unsupported_operand_types():
     with pytest.raises(TypeError):
         a / "2"
     with pytest.raises(TypeError):
-        a < 0.5  # noqa: B015
+        a < "0.5"  # noqa: B015
 
 
 def test_squared_is_the_signed_square():

@@ -16,7 +16,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Callable, Sequence
 
-from ..surd import Surd
+from ..values import Surd
 
 __all__ = ["Kind", "Notation", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
 

@@ -22,7 +22,7 @@ from functools import lru_cache
 from html import escape
 
 from ..spins import half_text
-from ..surd import Surd
+from ..values import Surd
 
 __all__ = [
     "TexError",

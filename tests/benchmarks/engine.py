@@ -33,6 +33,7 @@ from sympy.physics import wigner  # noqa: E402
 import tablegen  # noqa: E402
 import tablegen.intmath  # noqa: E402
 from tablegen import coefficients  # noqa: E402
+from tablegen.kinds import ninej as k9, sixj as k6, threej as k3  # noqa: E402
 
 TOP = 10  # 2 * 5: every j <= 5
 
@@ -83,17 +84,17 @@ def sixj_inputs() -> list[tuple[int, ...]]:
 
 
 def clear_caches() -> None:
-    coefficients._threej_square_cached.cache_clear()
-    coefficients._sixj_value_cached.cache_clear()
-    coefficients._ninej_square.cache_clear()
+    k3._threej_square_cached.cache_clear()
+    k6._sixj_value_cached.cache_clear()
+    k9._ninej_square.cache_clear()
 
 
 def cache_sizes() -> str:
     """Current entries of the three value caches."""
     infos = {
-        "3j/CG": coefficients._threej_square_cached.cache_info(),
-        "6j": coefficients._sixj_value_cached.cache_info(),
-        "9j": coefficients._ninej_square.cache_info(),
+        "3j/CG": k3._threej_square_cached.cache_info(),
+        "6j": k6._sixj_value_cached.cache_info(),
+        "9j": k9._ninej_square.cache_info(),
     }
     return ", ".join(f"{k} {v.currsize}" for k, v in infos.items())
 
@@ -243,7 +244,7 @@ def main(argv: list[str] | None = None) -> int:
     tracemalloc.stop()
     print(f"tablegen part (all cases in one untimed pass from empty caches): peak traced memory "
           f"{peak / 2**20:.1f} MiB for {len(kept)} values; cache entries after it: {cache_sizes()}")
-    table = tablegen.intmath._FACTORIALS
+    table = tablegen.intmath.factorials_upto(0)
     table_bytes = sum(sys.getsizeof(x) for x in table)
     print(f"factorial table (kept across runs, not in the peak above): {len(table)} entries, "
           f"{table_bytes / 2**20:.1f} MiB")

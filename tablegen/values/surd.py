@@ -1,4 +1,4 @@
-"""The exact value type: sign x sqrt(p/q).
+"""The exact value type: sign x sqrt(p/q) (the protocol it keeps: values/__init__.py).
 
 Every Clebsch-Gordan coefficient and every 3j, 6j and 9j symbol is a real
 number whose square is rational, so it is stored as a sign in {-1, 0, 1} and a
@@ -6,6 +6,10 @@ reduced fraction p/q (p, q >= 1 coprime; zero is sign 0 with p = 0, q = 1).
 The value is canonical at construction, so ``==`` and ``hash`` compare the
 stored parts; a value that happens to be rational equals, and hashes like, the
 same ``int`` or ``Fraction``.
+
+Products, quotients and integer powers stay Surds; a sum or difference is an
+:class:`~tablegen.values.exact_sum.ExactSum` (always that type; it equals
+the Surd when it has a single term).
 
 ``str()`` and ``repr()`` are part of the data format (they are written into
 checksummed files): change them only on purpose.
@@ -17,11 +21,9 @@ import numbers
 from fractions import Fraction
 from math import gcd, isqrt
 
-from . import intmath
+from .. import intmath
 
 __all__ = ["Surd"]
-
-_LATEX_STYLES = ("root", "rational")
 
 
 def _as_fraction(x: object) -> Fraction | None:
@@ -136,11 +138,17 @@ class Surd:
             return hash(self.as_fraction())
         return hash(("Surd", self._sign, self._p, self._q))
 
-    def _order_key(self, other: object) -> tuple[Fraction, Fraction] | None:
+    def _order_key(self, other: object) -> "tuple[Fraction, Fraction | float] | None":
         # sign(x) * x**2 is strictly increasing, so comparing signed squares
-        # compares the values themselves without any square root.
+        # compares the values themselves without any square root.  A finite
+        # float is an exact binary rational and is compared as one, so ordering
+        # agrees with ==; an infinity or NaN compares as itself.
         if isinstance(other, Surd):
             return self.squared(), other.squared()
+        if isinstance(other, float):
+            if other != other or abs(other) == float("inf"):
+                return self.squared(), other
+            other = Fraction(other)
         f = _as_fraction(other)
         if f is None:
             return None
@@ -165,7 +173,7 @@ class Surd:
     def __bool__(self) -> bool:
         return self._sign != 0
 
-    # -- arithmetic (closed under *, /, integer powers; + is not closed) -------
+    # -- arithmetic (closed under *, /, integer powers; + and - give an ExactSum) --
     def _coerce(self, other: object) -> "Surd | None":
         if isinstance(other, Surd):
             return other
@@ -223,10 +231,32 @@ class Surd:
 
     # -- conversions -------------------------------------------------------------
     def __float__(self) -> float:
-        import mpmath
+        """The nearest float, from integers only (see values/decimals.py)."""
+        from .decimals import surd_float
 
-        with mpmath.workprec(113):
-            return float(self._sign * mpmath.sqrt(mpmath.mpf(self._p) / self._q))
+        return surd_float(self._sign, self._p, self._q)
+
+    # -- sums: always an ExactSum (one result type for every sum, whatever its terms) --
+    def __add__(self, other: object):
+        """self + other as an ExactSum (equal to a Surd when it has one term)."""
+        from .exact_sum import ExactSum
+
+        o = ExactSum._coerce(other)
+        return NotImplemented if o is None else ExactSum._of(self) + o
+
+    __radd__ = __add__
+
+    def __sub__(self, other: object):
+        from .exact_sum import ExactSum
+
+        o = ExactSum._coerce(other)
+        return NotImplemented if o is None else ExactSum._of(self) - o
+
+    def __rsub__(self, other: object):
+        from .exact_sum import ExactSum
+
+        o = ExactSum._coerce(other)
+        return NotImplemented if o is None else o - ExactSum._of(self)
 
     def __str__(self) -> str:
         if not self._sign:
@@ -252,45 +282,22 @@ class Surd:
     def decimal(self, digits: int = 15) -> str:
         """The value to `digits` significant digits, correctly rounded (half to even).
 
-        mpmath gives the digits; an exact integer test then confirms (or
-        corrects) the rounding, so the result never depends on a binary
-        approximation being close enough.
+        Integer square roots give the digits and an exact integer test decides
+        the last one (values/decimals.py); no binary approximation is involved.
         """
         from .decimals import surd_decimal
 
         return surd_decimal(self._sign, self._p, self._q, digits)
 
     def latex(self, style: str = "root", wrap: bool = False) -> str:
-        """LaTeX for the value.
+        """LaTeX for the value (see values/latex.py for the styles "root" and "rational").
 
-        style="root" writes sqrt of a fraction (-\\sqrt{\\frac{5}{14}}),
-        style="rational" rationalises the denominator (-\\frac{\\sqrt{70}}{14}).
-        Integers and plain fractions are written as such.  With wrap=True a
-        negative value or a fraction is put in \\left( \\right) so that it can
-        be raised to a power.
+        With wrap=True a negative value or a fraction is put in \\left( \\right)
+        so that it can be raised to a power.
         """
-        if style not in _LATEX_STYLES:
-            raise ValueError(f"argument style = {style!r}: must be one of {', '.join(_LATEX_STYLES)}")
-        if not self._sign:
-            return "0"
-        t = intmath.int_text
-        if self.is_rational():
-            rp, rq = t(isqrt(self._p)), t(isqrt(self._q))
-            body = rp if rq == "1" else f"\\frac{{{rp}}}{{{rq}}}"
-        elif style == "root":
-            p, q = t(self._p), t(self._q)
-            body = f"\\sqrt{{{p}}}" if q == "1" else f"\\sqrt{{\\frac{{{p}}}{{{q}}}}}"
-        else:
-            # sqrt(p/q) = sqrt(p*q)/q = a*sqrt(b)/q with p*q = a^2 b, b square-free
-            a, b = intmath.split_square(self._p * self._q)
-            g = gcd(a, self._q)
-            a, den = a // g, self._q // g
-            top = f"\\sqrt{{{t(b)}}}" if a == 1 else f"{t(a)}\\sqrt{{{t(b)}}}"
-            body = top if den == 1 else f"\\frac{{{top}}}{{{t(den)}}}"
-        text = f"-{body}" if self._sign < 0 else body
-        if wrap and (self._sign < 0 or "\\frac" in body):
-            return f"\\left({text}\\right)"
-        return text
+        from .latex import surd_latex
+
+        return surd_latex(self._sign, self._p, self._q, style, wrap)
 
     def prime_form(self) -> tuple[int, tuple[tuple[int, int], ...]]:
         """(sign, ((prime, exponent), ...)) with p/q = prod(prime**exponent)."""
@@ -300,14 +307,6 @@ class Surd:
         for prime, e in intmath.prime_exponents(self._q).items():
             exps[prime] = exps.get(prime, 0) - e
         return self._sign, tuple(sorted(exps.items()))
-
-    def prime_string(self) -> str:
-        """Compact exact notation of p/q by prime exponents, e.g. '-[2^-1 5 7^-1]^(1/2)'."""
-        sign, items = self.prime_form()
-        if not sign:
-            return "0"
-        parts = " ".join(str(p) if e == 1 else f"{p}^{e}" for p, e in items) or "1"
-        return f"{'-' if sign < 0 else ''}[{parts}]^(1/2)"
 
 
 # Slot setters bound once: the trusted constructor is on every hot path.

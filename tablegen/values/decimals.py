@@ -1,0 +1,172 @@
+"""Correctly rounded decimal text and floats of exact values, in integers only.
+
+A surd sign*sqrt(p/q) is rounded directly: ``math.isqrt`` of the scaled
+integer p*10**(2s)//q gives floor(sqrt(p/q)*10**s), and one exact comparison
+decides the last digit (round half to even).  A value known only through
+integer bounds (an exact sum of surds: see exact_sum.py) is rounded by
+tightening the bounds until every point between them rounds the same way,
+which always happens for an irrational value.  No float and no mpmath on
+either path.
+"""
+
+from __future__ import annotations
+
+from math import isqrt
+from typing import Callable
+
+from ..intmath import int_text
+
+__all__ = ["MAX_DIGITS", "check_digits", "surd_decimal", "surd_float", "bounded_decimal", "bounded_float"]
+
+MAX_DIGITS = 100_000
+
+#: bounds(base, s) -> (low, high) integers with low <= |value| * base**s <= high
+Bounds = Callable[[int, int], "tuple[int, int]"]
+
+
+def check_digits(digits: object) -> None:
+    """ValueError naming the argument unless 1 <= digits <= MAX_DIGITS (an int)."""
+    if not isinstance(digits, int) or isinstance(digits, bool) or not 1 <= digits <= MAX_DIGITS:
+        raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {MAX_DIGITS}")
+
+
+def _bracket(a: int, p: int, q: int, s: int) -> int:
+    """Compare sqrt(p/q)*10**s with a +- 1/2: -1 below a-1/2, 1 at/above a+1/2, 0 inside.
+
+    Uses 4*x versus (2a+-1)**2 with x = p*10**(2s)/q, all in integers.
+    """
+    if s >= 0:
+        lhs_num, lhs_den = 4 * p * 10 ** (2 * s), q
+    else:
+        lhs_num, lhs_den = 4 * p, q * 10 ** (-2 * s)
+    lo = (2 * a - 1) ** 2 * lhs_den
+    hi = (2 * a + 1) ** 2 * lhs_den
+    if lhs_num < lo:
+        return -1
+    if lhs_num > hi:
+        return 1
+    if lhs_num == hi:  # exact tie above: half to even
+        return 0 if a % 2 == 0 else 1
+    if lhs_num == lo:  # exact tie below
+        return 0 if a % 2 == 0 else -1
+    return 0
+
+
+_FAST_LEN = 1 << 3000
+
+
+def _log10_guess(p: int, q: int) -> int:
+    """floor(log10(sqrt(p/q))) within one, from bit lengths (for huge p, q)."""
+    return ((p.bit_length() - q.bit_length()) * 30103 // 100000) // 2
+
+
+def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
+    """Decimal text of sign*sqrt(p/q) with `digits` significant digits."""
+    check_digits(digits)
+    if sign == 0:
+        return "0"
+    # first guess of the decimal exponent from the integers' lengths; the exact
+    # check below corrects it by one either way if needed
+    e10 = (len(int_text(p)) - len(int_text(q))) // 2 if max(p, q) < _FAST_LEN else _log10_guess(p, q)
+    low, high = 10 ** (digits - 1), 10**digits
+    # settle the exponent exactly: low <= sqrt(p/q) * 10**s < high, s = digits-1-e10
+    for _ in range(8):
+        s = digits - 1 - e10
+        num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
+        if num >= high * high * den:
+            e10 += 1
+        elif num < low * low * den:
+            e10 -= 1
+        else:
+            break
+    s = digits - 1 - e10
+    num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
+    a = isqrt(num // den)  # floor(sqrt(num/den)), since isqrt(floor(x)) = floor(sqrt(x))
+    a += _bracket(a, p, q, s)  # 0 or 1: round half to even, decided exactly
+    if a == high:  # rounding carried into the next power of ten
+        a, e10 = low, e10 + 1
+    return _format(sign, int_text(a), e10)
+
+
+def surd_float(sign: int, p: int, q: int) -> float:
+    """sign*sqrt(p/q) as the nearest float (ties to even), from integers only.
+
+    m = floor(sqrt(p/q) * 2**k) with about 60 significant bits; the true value
+    lies in [m, m+1), so 2m+1 (or 2m when exact) rounds to the same float as the
+    value itself, and int / int true division is correctly rounded in CPython.
+    """
+    if not sign:
+        return 0.0
+    k = 60 - (p.bit_length() - q.bit_length()) // 2
+    num, den = (p << (2 * k), q) if k >= 0 else (p, q << (-2 * k))
+    m = isqrt(num // den)
+    s = 2 * m + (0 if m * m * den == num else 1)
+    e = k + 1
+    value = s / (1 << e) if e >= 0 else float(s << -e)
+    return value if sign > 0 else -value
+
+
+def bounded_decimal(sign: int, bounds: Bounds, magnitude: int, digits: int) -> str:
+    """Decimal text of an IRRATIONAL value with the given sign, known through integer bounds.
+
+    magnitude: a guess of floor(log10|value|) (any int; only speed depends on it).
+    Tightens the bounds (more digits) until the exponent and then the rounding
+    are settled; an irrational value is never on a rounding boundary, so this ends.
+    """
+    check_digits(digits)
+    e10 = magnitude
+    guard = 4
+    for _ in range(400):  # exponent: low and high agree on the number of digits
+        lo, hi = bounds(10, digits - 1 - e10 + guard)
+        if lo > 0 and len(int_text(lo)) == len(int_text(hi)):
+            e10 = len(int_text(lo)) - 1 - (digits - 1 - e10 + guard)
+            break
+        if lo > 0:
+            guard += guard
+        else:  # the value is far below the guess: look lower
+            e10 -= guard
+            guard += 4
+    else:  # pragma: no cover - only for a rational value passed by mistake
+        raise ArithmeticError("decimal exponent did not settle")
+    unit = 10**guard
+    for _ in range(400):  # rounding: every point in [lo, hi] rounds to the same a
+        lo, hi = bounds(10, digits - 1 - e10 + guard)
+        a_lo, a_hi = (2 * lo + unit) // (2 * unit), (2 * hi + unit) // (2 * unit)
+        if a_lo == a_hi:
+            break
+        guard += guard
+        unit = 10**guard
+    else:  # pragma: no cover
+        raise ArithmeticError("decimal rounding did not settle")
+    if a_lo == 10**digits:
+        a_lo, e10 = 10 ** (digits - 1), e10 + 1
+    return _format(sign, int_text(a_lo), e10)
+
+
+def bounded_float(sign: int, bounds: Bounds, magnitude_bits: int) -> float:
+    """The nearest float to an IRRATIONAL value known through integer bounds (base 2)."""
+    k = 64 - magnitude_bits
+    for _ in range(400):
+        lo, hi = bounds(2, k)
+        if lo > 0:
+            f_lo = lo / (1 << k) if k >= 0 else float(lo << -k)
+            f_hi = hi / (1 << k) if k >= 0 else float(hi << -k)
+            if f_lo == f_hi:
+                return f_lo if sign > 0 else -f_lo
+            k += 32
+        else:
+            k += 64
+    raise ArithmeticError("float rounding did not settle")  # pragma: no cover
+
+
+def _format(sign: int, mantissa: str, e10: int) -> str:
+    """Fixed notation for moderate exponents, scientific otherwise."""
+    digits = len(mantissa)
+    minus = "-" if sign < 0 else ""
+    if -6 <= e10 < 0:
+        return f"{minus}0.{'0' * (-e10 - 1)}{mantissa}"
+    if 0 <= e10 < digits:
+        whole, frac = mantissa[: e10 + 1], mantissa[e10 + 1 :]
+        return f"{minus}{whole}.{frac}" if frac else f"{minus}{whole}"
+    head = mantissa[0] + ("." + mantissa[1:] if digits > 1 else "")
+    return f"{minus}{head}e{e10:+d}"

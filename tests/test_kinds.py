@@ -1,0 +1,96 @@
+"""The kind records: one list, each record consistent with itself and with the
+public functions; the one 6j <-> W mapping; the compatibility views.
+
+W(a b c d; e f) = (-1)**(a+b+c+d) {a b e; d c f} (Racah 1942, as in Edmonds
+1957, eq. 6.2.13; equation number from memory).
+"""
+
+from __future__ import annotations
+
+import itertools
+
+import pytest
+from sympy import Rational
+from sympy.physics.wigner import racah
+
+from tablegen import coefficients, why_zero
+from tablegen.errors import QuantumNumberError
+from tablegen.kinds import KIND_KEYS, KINDS, ZeroRule, kind
+from tablegen.kinds.sixj import sixj_of_w, w_of_sixj
+from tablegen.triads import is_triad
+
+
+def test_the_list_and_lookup():
+    assert KIND_KEYS == ("cg", "3j", "6j", "w", "9j")
+    assert [kind(k) for k in KIND_KEYS] == list(KINDS)
+    with pytest.raises(ValueError, match="argument kind = 'x': must be one of cg, 3j, 6j, w, 9j"):
+        kind("x")
+
+
+def test_zero_rule_agrees_with_the_value_over_small_ranges():
+    # a value is zero exactly when the kind names a rule for it (all arguments <= 1, doubled <= 2)
+    for k in KINDS:
+        n = len(k.arguments)
+        positions = set(k.j_positions)
+        ranges = [range(0, 3) if i in positions else range(-2, 3) for i in range(n)]
+        count = 0
+        for t in itertools.product(*ranges):
+            if any(abs(t[m]) % 2 != t[j] % 2 for j, m in _pairs(k)):
+                continue  # parity of j - m is a parse error, not a zero
+            rule = k.zero_rule(t)
+            value = k.doubled(*t)
+            assert (rule is None) == bool(value), (k.key, t, rule, value)
+            if rule is not None:
+                assert isinstance(rule, ZeroRule) and rule.id in (
+                    "triangle", "triad-sum", "m-sum", "m-range", "parity", "symmetry", "cancellation")
+                assert why_zero(k.key, *[x / 2 for x in t]) == f"{rule.id}: {rule.text}"
+            count += 1
+            if count > 4000:
+                break
+
+
+def _pairs(k):
+    """(j position, m position) pairs: each m follows its j in the notation groups (CG) or the columns (3j)."""
+    if k.key == "cg":
+        return ((0, 1), (2, 3), (4, 5))
+    if k.key == "3j":
+        return ((0, 3), (1, 4), (2, 5))
+    return ()
+
+
+def test_parse_names_the_argument_and_counts():
+    for k in KINDS:
+        with pytest.raises(TypeError, match=f"{k.key} takes {len(k.arguments)} arguments"):
+            k.parse((1,) * (len(k.arguments) - 1))
+        values = ["1"] * len(k.arguments)
+        values[-1] = "1/3"
+        with pytest.raises(QuantumNumberError, match=f"argument {k.arguments[-1]} = "):
+            k.parse(values)
+
+
+def test_sixj_w_mapping_is_one_involution_pair_and_matches_racah():
+    for t in itertools.product(range(0, 5), repeat=6):
+        w, s = w_of_sixj(t)
+        back, s2 = sixj_of_w(w)
+        assert back == t and s == s2
+    checked = 0
+    for t in itertools.product(range(0, 4), repeat=6):
+        if kind("w").zero_rule(t) is None:
+            checked += 1
+            assert kind("w").doubled(*t).to_sympy() == racah(*[Rational(x, 2) for x in t]), t
+    assert checked > 50
+
+
+def test_triad_predicate():
+    # the triangle rule with an integer sum (common practice, no source)
+    for a, b, c in itertools.product(range(7), repeat=3):
+        assert is_triad(a, b, c) == ((a + b + c) % 2 == 0 and abs(a - b) <= c <= a + b)
+        assert is_triad(a, b, c) == is_triad(b, c, a) == is_triad(c, b, a)
+
+
+def test_compatibility_views_come_from_the_records():
+    assert coefficients.KINDS == KIND_KEYS
+    assert coefficients.ARGUMENT_NAMES == {k.key: k.arguments for k in KINDS}
+    assert coefficients.DOUBLED == {k.key: k.doubled for k in KINDS}
+    assert coefficients.parse_arguments("6j", (1, 1, 1, 1, 1, 1)) == (2,) * 6
+    assert coefficients.why_zero_doubled("3j", (2, 2, 2, 0, 0, 0)) == "parity: all m are 0 and j1 + j2 + j3 is odd"
