@@ -48,12 +48,13 @@ def build(
     *,
     jobs: int | None = None,
     allow_large: bool = False,
+    discard_extra: bool = False,
     progress: Callable[[str, int, int], None] | None = None,
 ) -> BuildResult:
     """Write the site for ``recipe`` into ``out_dir`` (replacing a previous site)."""
     started = time.perf_counter()
     check_size(recipe, allow_large)  # refuse before any computing
-    check_target(out_dir)  # refuse before any computing, too
+    check_target(out_dir, discard_extra)  # refuse before any computing, too
 
     if progress:
         progress("planning", 0, 0)
@@ -80,7 +81,7 @@ def build(
         render_latex(plan, book, meta),
         render_data(plan, book, meta, values_txt),
     )
-    with Staging(out_dir) as site:
+    with Staging(out_dir, discard_extra) as site:
         for n, (path, data) in enumerate(outputs, 1):
             site.write(path, data)
             if progress and n % 50 == 0:

@@ -79,6 +79,10 @@ def _build_parser():
     build.add_argument("--notes", help="notes shown on the index page")
     build.add_argument("--jobs", type=int, help="processes for computing (default: all cores)")
     build.add_argument("--allow-large", action="store_true", help="build even above the size guard")
+    build.add_argument(
+        "--discard-extra", action="store_true",
+        help="replace an old site even if it holds files its SHA256SUMS does not list (they are deleted)",
+    )
     build.add_argument("--quiet", action="store_true", help="no progress or summary output")
     build.set_defaults(run=_run_build)
 
@@ -275,7 +279,19 @@ def _run_build(ns) -> int:
         raise _UsageError(f"tablegen build: argument --jobs = {ns.jobs}: must be >= 1")
     recipe = _build_recipe(ns)
     # a terminated build must clean its staging folder: turn SIGTERM into an exception
-    signal.signal(signal.SIGTERM, _raise_interrupt)
+    previous = signal.signal(signal.SIGTERM, _raise_interrupt)
+    try:
+        return _build_with_progress(ns, recipe, build)
+    except TablegenError:
+        raise
+    except OSError as exc:  # the file system, not the input: one line, nothing half-written
+        where = f" {exc.filename!r}" if getattr(exc, "filename", None) else ""
+        raise _UsageError(f"tablegen: error: cannot write{where}: {exc.strerror or exc}") from None
+    finally:
+        signal.signal(signal.SIGTERM, previous)
+
+
+def _build_with_progress(ns, recipe, build) -> int:
     show = sys.stderr.isatty() and not ns.quiet
 
     def progress(stage: str, done: int, total: int) -> None:
@@ -285,7 +301,10 @@ def _run_build(ns) -> int:
             text = f"{stage} {done:,} files" if done else f"{stage}..."
         print(f"\rtablegen: {text}\033[K", end="", file=sys.stderr, flush=True)
 
-    result = build(recipe, ns.out, jobs=ns.jobs, allow_large=ns.allow_large, progress=progress if show else None)
+    result = build(
+        recipe, ns.out, jobs=ns.jobs, allow_large=ns.allow_large, discard_extra=ns.discard_extra,
+        progress=progress if show else None,
+    )
     if show:
         print("\r\033[K", end="", file=sys.stderr)
     if not ns.quiet:

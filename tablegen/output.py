@@ -10,9 +10,11 @@ that is not a tablegen site is refused, never wiped.
 
 from __future__ import annotations
 
+import fcntl
 import hashlib
 import json
 import os
+import re
 import shutil
 import signal
 import threading
@@ -28,30 +30,125 @@ SUMS = "SHA256SUMS"
 MANIFEST_FORMAT = "tablegen-manifest/1"
 _STAGING_TAG = ".tablegen-staging-"
 _OLD_TAG = ".tablegen-old-"
+_LOCK_TAG = ".tablegen-lock"
 
 
 def sha256_hex(data: bytes) -> str:
     return hashlib.sha256(data).hexdigest()
 
 
-def is_tablegen_site(folder: Path) -> bool:
-    """True if folder holds a manifest written by tablegen."""
+def _listed_files(folder: Path) -> dict[str, str] | None:
+    """SHA256SUMS of folder as {path: digest}, or None if it is missing or malformed."""
     try:
-        with open(folder / MANIFEST, encoding="utf-8") as fh:
-            return json.load(fh).get("tool") == "tablegen"
-    except (OSError, ValueError, AttributeError):
-        return False
+        text = (folder / SUMS).read_text(encoding="utf-8")
+    except (OSError, ValueError):
+        return None
+    listed: dict[str, str] = {}
+    for line in text.splitlines():
+        digest, sep, path = line.partition("  ")
+        if not sep or len(digest) != 64 or not path:
+            return None
+        listed[path] = digest
+    return listed
 
 
-def check_target(out_dir: str | os.PathLike) -> Path:
+def _site_listing(folder: Path) -> dict[str, str] | None:
+    """The listing of a genuine tablegen site: SHA256SUMS and manifest.json agree."""
+    listed = _listed_files(folder)
+    if not listed or MANIFEST not in listed:
+        return None
+    try:
+        data = (folder / MANIFEST).read_bytes()
+        manifest = json.loads(data.decode("utf-8"))
+    except (OSError, ValueError):
+        return None
+    if not isinstance(manifest, dict) or manifest.get("tool") != "tablegen":
+        return None
+    if sha256_hex(data) != listed[MANIFEST] or manifest.get("files") != len(listed):
+        return None
+    return listed
+
+
+def _first_foreign(folder: Path, listed: dict[str, str]) -> str | None:
+    """The first entry (sorted walk) that SHA256SUMS does not account for."""
+    dirs = {str(PurePosixPath(p).parent) for p in listed}
+    dirs |= {str(parent) for p in listed for parent in PurePosixPath(p).parents}
+    for root, subdirs, files in os.walk(folder, onerror=_raise):
+        subdirs.sort()
+        rel_root = Path(root).relative_to(folder).as_posix()
+        for name in sorted(files) + [d for d in subdirs if os.path.islink(os.path.join(root, d))]:
+            rel = name if rel_root == "." else f"{rel_root}/{name}"
+            if rel == SUMS or (rel in listed and not os.path.islink(os.path.join(root, name))):
+                continue
+            return rel
+        for name in list(subdirs):
+            rel = name if rel_root == "." else f"{rel_root}/{name}"
+            if os.path.islink(os.path.join(root, name)):
+                subdirs.remove(name)
+            elif rel not in dirs:
+                return rel + "/"
+    return None
+
+
+def _raise(exc: OSError) -> None:
+    raise exc
+
+
+def is_tablegen_site(folder: Path) -> bool:
+    """True if folder is a site tablegen wrote: SHA256SUMS and manifest agree, nothing unlisted."""
+    listed = _site_listing(Path(folder))
+    return listed is not None and _first_foreign(Path(folder), listed) is None
+
+
+def resolve_target(out_dir: str | os.PathLike) -> Path:
+    """The real folder --out names: symlinks followed, the current folder checked."""
+    try:
+        target = Path(out_dir).absolute()
+    except OSError:
+        raise OutputError(out_dir, "is relative, but the current folder no longer exists") from None
+    if target.is_symlink():
+        try:
+            real = target.resolve(strict=True)
+        except (OSError, RuntimeError):
+            raise OutputError(target, "is a symbolic link to nothing (its target does not exist)") from None
+        target = real
+    else:
+        target = Path(os.path.realpath(target))
+    try:
+        here = Path(os.getcwd()).resolve()
+    except OSError:
+        here = None
+    if here is not None and (here == target or target in here.parents):
+        raise OutputError(target, "contains the current folder; run the build from outside it")
+    for parent in target.parents:
+        if _site_listing(parent) is not None:
+            raise OutputError(target, f"lies inside the tablegen site {str(parent)!r}; choose a folder outside it")
+    return target
+
+
+def check_target(out_dir: str | os.PathLike, discard_extra: bool = False) -> Path:
     """The output folder as a Path, if tablegen may replace it."""
-    target = Path(out_dir).absolute()
+    target = resolve_target(out_dir)
     if target.exists() and not target.is_dir():
         raise OutputError(target, "exists and is not a folder")
-    if target.is_dir() and any(target.iterdir()) and not is_tablegen_site(target):
-        raise OutputError(
-            target, f"is not empty and holds no tablegen {MANIFEST}; refusing to replace it (choose another --out)"
-        )
+    try:
+        if target.is_dir() and any(target.iterdir()):
+            listed = _site_listing(target)
+            if listed is None:
+                raise OutputError(
+                    target,
+                    f"is not empty and is not a tablegen site (no {SUMS} and {MANIFEST} that agree); "
+                    "refusing to replace it (choose another --out)",
+                )
+            foreign = _first_foreign(target, listed)
+            if foreign is not None and not discard_extra:
+                raise OutputError(
+                    target,
+                    f"holds {foreign!r}, which {SUMS} does not list; refusing to delete it "
+                    "(move it away, or pass --discard-extra to replace the whole folder)",
+                )
+    except PermissionError as exc:
+        raise OutputError(target, f"cannot be read ({exc.strerror})") from None
     parent = target.parent
     if not parent.is_dir():
         raise OutputError(parent, "does not exist (the parent of --out must exist)")
@@ -60,39 +157,90 @@ def check_target(out_dir: str | os.PathLike) -> Path:
     return target
 
 
+class _TargetLock:
+    """An flock on '.<name>.tablegen-lock' beside the target, held until the swap is done.
+
+    A second build of the same target is refused.  The lock file is removed
+    while held; an opener that raced with the removal notices the inode changed
+    and tries again.
+    """
+
+    def __init__(self, target: Path) -> None:
+        self.path = target.parent / f".{target.name}{_LOCK_TAG}"
+        self._fd: int | None = None
+
+    def acquire(self, target: Path) -> None:
+        for _ in range(100):
+            fd = os.open(self.path, os.O_RDWR | os.O_CREAT, 0o644)
+            try:
+                fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
+            except BlockingIOError:
+                os.close(fd)
+                raise OutputError(
+                    target, "another tablegen build is writing it; wait for that build to end, or choose another --out"
+                ) from None
+            try:
+                same = os.stat(self.path).st_ino == os.fstat(fd).st_ino
+            except FileNotFoundError:
+                same = False
+            if same:
+                self._fd = fd
+                return
+            os.close(fd)
+        raise OutputError(target, "its lock file keeps changing; try again")
+
+    def release(self) -> None:
+        if self._fd is None:
+            return
+        try:
+            os.unlink(self.path)
+        except FileNotFoundError:
+            pass
+        os.close(self._fd)
+        self._fd = None
+
+
 def _remove_leftovers(target: Path) -> None:
-    """Staging or old folders left by a build that was killed outright."""
+    """Staging or old folders of builds that are provably gone (the caller holds the target's lock)."""
     parent = target.parent
-    prefix = f".{target.name}"
+    pattern = re.compile(re.escape(f".{target.name}") + r"\.tablegen-(staging|old)-\d+")
     for p in parent.iterdir():
-        if p.name.startswith(prefix + _STAGING_TAG) or p.name.startswith(prefix + _OLD_TAG):
-            if p.is_dir() and not p.is_symlink():
-                shutil.rmtree(p, ignore_errors=True)
+        if pattern.fullmatch(p.name) and p.is_dir() and not p.is_symlink():
+            shutil.rmtree(p, ignore_errors=True)
 
 
 class Staging:
     """Context manager: collect a site in a staging folder, then swap it in."""
 
-    def __init__(self, out_dir: str | os.PathLike) -> None:
-        self.target = check_target(out_dir)
+    def __init__(self, out_dir: str | os.PathLike, discard_extra: bool = False) -> None:
+        self.target = check_target(out_dir, discard_extra)
+        self._discard_extra = discard_extra
+        self._lock = _TargetLock(self.target)
+        self.installed = False
         parent = self.target.parent
         self._dir = parent / f".{self.target.name}{_STAGING_TAG}{os.getpid()}"
         self.sums: dict[str, str] = {}
         self.sizes: dict[str, int] = {}
 
     def __enter__(self) -> "Staging":
-        _remove_leftovers(self.target)
         try:
             with _signals_held():
+                self._lock.acquire(self.target)
+                check_target(self.target, self._discard_extra)  # again, now that no other build can change it
+                _remove_leftovers(self.target)
                 self._dir.mkdir()
         except BaseException:
-            shutil.rmtree(self._dir, ignore_errors=True)
+            with _signals_held():
+                shutil.rmtree(self._dir, ignore_errors=True)
+                self._lock.release()
             raise
         return self
 
     def __exit__(self, exc_type, exc, tb) -> None:
-        if exc_type is not None:
-            shutil.rmtree(self._dir, ignore_errors=True)
+        with _signals_held():  # a second Ctrl-C must not cut the clean-up short
+            if exc_type is not None and not self.installed:
+                shutil.rmtree(self._dir, ignore_errors=True)
+            self._lock.release()
 
     def write(self, path: str, data: bytes) -> None:
         """Write one file of the site (path relative to the site root, '/'-separated)."""
@@ -131,7 +279,8 @@ class Staging:
                 if old.exists():
                     os.rename(old, target)  # put the previous site back
                 raise
-        shutil.rmtree(old, ignore_errors=True)
+            self.installed = True
+            shutil.rmtree(old, ignore_errors=True)
 
 
 @contextmanager
