@@ -17,10 +17,11 @@ from typing import Iterator
 from ..buildinfo import BuildMeta, bibtex
 from ..coefficients import ARGUMENT_NAMES
 from ..compute import ValueBook
+from ..kinds import KIND_KEYS
 from ..plan import SitePlan, Table
 from ..spins import half_text
 
-__all__ = ["canonical_values", "render_data", "TABLE_FORMAT", "VALUES_HEADER", "VALUE_FAMILIES"]
+__all__ = ["canonical_values", "render_data", "TABLE_FORMAT", "VALUES_HEADER"]
 
 TABLE_FORMAT = "tablegen-table/1"
 VALUES_HEADER = (
@@ -29,13 +30,11 @@ VALUES_HEADER = (
     "# families: cg <j1 m1; j2 m2 | J M>, 3j (j1 j2 j3; m1 m2 m3), 6j {j1 j2 j3; j4 j5 j6},\n"
     "#           w W(a b c d; e f), 9j rows in order; Condon-Shortley phase\n"
 )
-#: Order of the families in values.txt.
-VALUE_FAMILIES = ("cg", "3j", "6j", "w", "9j")
 
 
 def canonical_values(book: ValueBook) -> bytes:
     """values.txt: every value of the build, sorted, one per line."""
-    order = {f: i for i, f in enumerate(VALUE_FAMILIES)}
+    order = {f: i for i, f in enumerate(KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j
     lines = [
         f"{family} {' '.join(half_text(x) for x in key)} {shown.exact}\n"
         for (family, key), shown in sorted(book.items(), key=lambda kv: (order[kv[0][0]], kv[0][1]))

@@ -72,7 +72,6 @@ _OPERATORS = {
     "lvert": "|", "rvert": "|", "vert": "|", "mid": "|", "sum": "∑", "prod": "∏",
     "lbrace": "{", "rbrace": "}", "lfloor": "⌊", "rfloor": "⌋", "lceil": "⌈", "rceil": "⌉",
 }
-_LARGE = {"sum", "prod"}
 _SPACES = {",": "0.17em", ":": "0.22em", ";": "0.28em", " ": "0.25em", "quad": "1em", "qquad": "2em"}
 _FENCES = {"pmatrix": ("(", ")"), "Bmatrix": ("{", "}"), "vmatrix": ("|", "|"), "matrix": ("", "")}
 _CHAR_OPERATORS = set("+=()[]|,;<>/!:'")
