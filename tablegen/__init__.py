@@ -7,6 +7,7 @@ Condon-Shortley phase convention throughout.  Every function returns a
 from .coefficients import cg, ninej, racah_w, sixj, threej, why_zero
 from .errors import QuantumNumberError, TablegenError
 from .surd import Surd
+from .rotations import rotation_D, rotation_d, rotation_d_matrix, spherical_y
 
 __version__ = "0.1.0"
 
@@ -18,6 +19,10 @@ __all__ = [
     "ninej",
     "why_zero",
     "Surd",
+    "rotation_d",
+    "rotation_D",
+    "rotation_d_matrix",
+    "spherical_y",
     "TablegenError",
     "QuantumNumberError",
     "__version__",
