@@ -333,3 +333,13 @@ def test_kind_record():
         for member, sign in ROTATION_D_SMALL.members(*t):
             assert d2(*member) == d2(*t) * sign
     assert d_matrix2(0) == ((TrigPoly(1, [1]),),)
+
+
+@pytest.mark.parametrize("tj", TJS)
+def test_matrix_by_symmetry_equals_the_formula_everywhere(tj):
+    """d_matrix2 fills three quarters of the matrix by symmetry; every entry must equal Wigner's sum."""
+    from tablegen.kinds.rotation import _d2
+
+    for r, a in enumerate(ms(tj)):
+        for c, b in enumerate(ms(tj)):
+            assert d_matrix2(tj)[r][c] == _d2(tj, a, b)

@@ -73,13 +73,16 @@ class TrigPoly:
         if not isinstance(var, str) or not var.isidentifier():
             raise ValueError(f"argument var = {var!r}: must be a symbol name")
         f = factor if isinstance(factor, Surd) else Surd.from_rational(factor)
-        fr = [Fraction(c) for c in coeffs]
-        while fr and not fr[-1]:
-            fr.pop()
-        if not fr or not f:
+        if all(type(c) is int for c in coeffs):  # the engine's hot path: integer coefficients
+            ints, den = list(coeffs), 1
+        else:
+            fr = [Fraction(c) for c in coeffs]
+            den = lcm(*(c.denominator for c in fr)) if fr else 1
+            ints = [int(c * den) for c in fr]
+        while ints and not ints[-1]:
+            ints.pop()
+        if not ints or not f:
             return cls._trusted(Surd(0), (), "1", var)
-        den = lcm(*(c.denominator for c in fr))
-        ints = [int(c * den) for c in fr]
         g = gcd(*ints) * (1 if ints[-1] > 0 else -1)
         return cls._trusted(f * Fraction(g, den), tuple(c // g for c in ints), half, var)
 
