@@ -22,7 +22,7 @@ from fractions import Fraction
 from .angles import cos_of_pi_multiple, half_angle_signs, parse_angle, parse_cosine, parse_exact_rational
 from .errors import QuantumNumberError
 from .kinds.harmonics import SPHERICAL_Y, y2
-from .kinds.rotation import ROTATION_D_SMALL, RotationD, d2, d_at_cos2, d_matrix2
+from .kinds.rotation import RotationD, d2, d_at_cos2, d_matrix2, d_matrix_at_cos2
 from .spins import parse_j, parse_m
 
 from .values.phased import PhasedSurd
@@ -105,6 +105,9 @@ def rotation_d_matrix(j, *, beta=None, beta_over_pi=None, cos_beta=None, digits:
     tj = parse_j(j, "j", max_j)
     if beta is None and beta_over_pi is None and cos_beta is None:
         return d_matrix2(tj)
+    b = _beta(beta, beta_over_pi, cos_beta)
+    if b[0] == "cos":
+        return d_matrix_at_cos2(tj, b[1], b[2])
     ms = [Fraction(k, 2) for k in range(tj, -tj - 1, -2)]
     return tuple(tuple(rotation_d(Fraction(tj, 2), a, c, beta=beta, beta_over_pi=beta_over_pi,
                                   cos_beta=cos_beta, digits=digits, max_j=max_j) for c in ms) for a in ms)
@@ -200,6 +203,4 @@ def spherical_y(l, m, *, theta=None, phi=None, theta_over_pi=None, phi_over_pi=N
     return _complex_text(re, im)
 
 
-# the records, for the lead to register once the site families exist
-KINDS = (ROTATION_D_SMALL, SPHERICAL_Y)
 

@@ -343,3 +343,15 @@ def test_matrix_by_symmetry_equals_the_formula_everywhere(tj):
     for r, a in enumerate(ms(tj)):
         for c, b in enumerate(ms(tj)):
             assert d_matrix2(tj)[r][c] == _d2(tj, a, b)
+
+
+def test_exact_matrix_at_rational_cosine():
+    """The exact matrix (filled by symmetry) equals the function evaluated entry by entry."""
+    from tablegen.kinds.rotation import d_matrix_at_cos2
+
+    for tj in TJS:
+        for c in (F(0), F(1, 3), F(-1, 2)):
+            m = d_matrix_at_cos2(tj, c)
+            for r, a in enumerate(ms(tj)):
+                for k, b in enumerate(ms(tj)):
+                    assert m[r][k] == d2(tj, a, b).at_cos(c)

@@ -23,7 +23,7 @@ from ..surd import Surd
 from ..values.trig_poly import TrigPoly, poly_mul
 from . import Kind, Notation, ZeroRule
 
-__all__ = ["d2", "d_at_cos2", "d_matrix2", "RotationD", "d_zero_rule", "ROTATION_D_SMALL", "CACHE_MAX_TJ"]
+__all__ = ["d2", "d_at_cos2", "d_matrix2", "d_matrix_at_cos2", "RotationD", "d_zero_rule", "ROTATION_D_SMALL", "CACHE_MAX_TJ"]
 
 CACHE_MAX_TJ = 40  # functions for j <= 20 are cached; larger ones are rebuilt on demand
 _HALF = {(0, 0): "1", (1, 1): "sin", (1, 0): "cos/2", (0, 1): "sin/2"}
@@ -93,15 +93,41 @@ def d_at_cos2(tj: int, tmp: int, tm: int, c: Fraction, signs: tuple[int, int] = 
     """
     if d_zero_rule((tj, tmp, tm)) is not None:
         return Surd(0)
-    cc, ss = (1 + c) / 2, (1 - c) / 2  # cos^2(beta/2), sin^2(beta/2)
-    total = Fraction(0)
+    # with c = n/e: cos^2(beta/2) = (e+n)/(2e), sin^2(beta/2) = (e-n)/(2e); the exponents of a term
+    # add up to a constant, so the sum is an integer over (2e)^const: no Fraction inside the loop
+    n, e = c.numerator, c.denominator
+    x, y = e + n, e - n
+    total = 0
     ea = eb = 0
+    top = None
     for w, a, b in _terms(tj, tmp, tm):
         ea, eb = a & 1, b & 1
-        total += w * cc ** (a // 2) * ss ** (b // 2)
+        total += w * x ** (a // 2) * y ** (b // 2)
+        top = (a // 2) + (b // 2)
     h_sign = (signs[0] if ea else 1) * (signs[1] if eb else 1)
-    h2 = (cc if ea else 1) * (ss if eb else 1)
-    return _prefactor(tj, tmp, tm) * Surd.from_rational(total) * Surd.from_signed_square(h_sign * h2)
+    # value^2 = prefactor^2 * (total / (2e)^top)^2 * x^ea y^eb / (2e)^(ea+eb)
+    den = (2 * e) ** top
+    value = _prefactor(tj, tmp, tm) * Surd.from_rational(Fraction(total, den))
+    return value * Surd.from_signed_square(h_sign * Fraction((x if ea else 1) * (y if eb else 1), (2 * e) ** (ea + eb)))
+
+
+def d_matrix_at_cos2(tj: int, c: Fraction, signs: tuple[int, int] = (1, 1)) -> tuple[tuple[Surd, ...], ...]:
+    """The exact matrix d^j at cos(beta) = c, rows m' = j ... -j; three quarters by symmetry."""
+    ms = range(tj, -tj - 1, -2)
+    cache: dict = {}
+
+    def one(a: int, b: int) -> Surd:
+        if (a, b) not in cache:
+            cache[(a, b)] = d_at_cos2(tj, a, b, c, signs)
+        return cache[(a, b)]
+
+    def entry(a: int, b: int) -> Surd:
+        s = -1 if ((b - a) // 2) & 1 else 1
+        if abs(a) >= abs(b):
+            return one(a, b) if a >= 0 else one(-a, -b) * s
+        return one(b, a) * s if b > 0 else one(-b, -a)
+
+    return tuple(tuple(entry(a, b) for b in ms) for a in ms)
 
 
 def d_matrix2(tj: int) -> tuple[tuple[TrigPoly, ...], ...]:

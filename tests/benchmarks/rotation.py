@@ -67,9 +67,7 @@ def main(argv=None) -> int:
     from fractions import Fraction
 
     t = time.perf_counter()
-    for a in range(100, -101, -2):
-        for b in range(100, -101, -2):
-            rotation.d_at_cos2(100, a, b, Fraction(0))
+    rotation.d_matrix_at_cos2(100, Fraction(0))
     t_ours = time.perf_counter() - t
     done, t_sym = sympy_parts([100], lambda tj: wigner_d_small(sympy.Integer(50), sympy.pi / 2), budget)
     if done:
