@@ -26,7 +26,7 @@ from .kinds.rotation import RotationD, d2, d_at_cos2, d_matrix2, d_matrix_at_cos
 from .spins import parse_j, parse_m
 
 from .values.phased import PhasedSurd
-from .values.rounding import check_digits, decided_decimal, mp_to_fraction
+from .values.rounding import check_digits, decided_decimal, interval_bounds
 
 __all__ = ["rotation_d", "rotation_D", "rotation_d_matrix", "spherical_y"]
 
@@ -63,13 +63,7 @@ def _radians(kind: str, x: Fraction, iv):
 
 
 def _bounds(interval_fn):
-    def bounds(prec):
-        from mpmath import iv
-
-        iv.prec = prec
-        v = interval_fn(iv)
-        return mp_to_fraction(v._mpi_[0]), mp_to_fraction(v._mpi_[1])
-    return bounds
+    return interval_bounds(interval_fn)
 
 
 def _complex_text(re: str, im: str) -> str:

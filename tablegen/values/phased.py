@@ -127,17 +127,12 @@ class PhasedSurd:
         r = self.real_surd()
         if r is not None:
             return r.decimal(digits)
-        from .rounding import decided_decimal, mp_to_fraction
+        from .rounding import decided_decimal, interval_bounds
+
+        m, t = self._modulus, self._turn
 
         def part(fn):
-            def bounds(prec):
-                from mpmath import iv
-
-                iv.prec = prec
-                m = self._modulus
-                v = iv.sqrt(iv.mpf(m.p) / m.q) * fn(2 * iv.pi * iv.mpf(self._turn.numerator) / self._turn.denominator)
-                return mp_to_fraction(v._mpi_[0]), mp_to_fraction(v._mpi_[1])
-            return bounds
+            return interval_bounds(lambda iv: iv.sqrt(iv.mpf(m.p) / m.q) * fn(2 * iv.pi * iv.mpf(t.numerator) / t.denominator))
 
         # the real (imaginary) part is exactly zero at quarter turns only, handled above
         t4 = 4 * self._turn

@@ -109,13 +109,7 @@ class PiPower:
         """Correctly rounded: pi**(e/2) with e != 0 is transcendental, so no rounding tie exists."""
         if self._e == 0 or not self._surd:
             return self._surd.decimal(digits)
-        from .rounding import decided_decimal, mp_to_fraction
+        from .rounding import decided_decimal, interval_bounds
 
-        def bounds(prec):
-            from mpmath import iv
-
-            iv.prec = prec
-            v = self.interval(iv)
-            return mp_to_fraction(v._mpi_[0]), mp_to_fraction(v._mpi_[1])
-
+        bounds = interval_bounds(self.interval)
         return decided_decimal(bounds, digits)

@@ -64,3 +64,20 @@ def decided_decimal(bounds: Callable[[int], tuple[Fraction, Fraction]], digits: 
     raise ArithmeticError(
         f"rounding to {digits} digits undecided at {prec // 2} bits: the value lies on a rounding boundary or is zero"
     )
+
+
+def interval_bounds(interval_fn: Callable) -> Callable[[int], tuple[Fraction, Fraction]]:
+    """bounds(prec) for decided_decimal from interval_fn(iv) -> mpmath interval, restoring iv's precision."""
+
+    def bounds(prec: int) -> tuple[Fraction, Fraction]:
+        from mpmath import iv
+
+        saved = iv.prec
+        iv.prec = prec
+        try:
+            v = interval_fn(iv)
+        finally:
+            iv.prec = saved
+        return mp_to_fraction(v._mpi_[0]), mp_to_fraction(v._mpi_[1])
+
+    return bounds
