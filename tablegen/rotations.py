@@ -21,14 +21,31 @@ from fractions import Fraction
 
 from .angles import cos_of_pi_multiple, half_angle_signs, parse_angle, parse_cosine, parse_exact_rational
 from .errors import QuantumNumberError
-from .kinds.harmonics import SPHERICAL_Y, y2
-from .kinds.rotation import RotationD, d2, d_at_cos2, d_matrix2, d_matrix_at_cos2
 from .spins import parse_j, parse_m
 
-from .values.phased import PhasedSurd
 from .values.rounding import check_digits, decided_decimal, interval_bounds
 
 __all__ = ["rotation_d", "rotation_D", "rotation_d_matrix", "spherical_y"]
+
+
+# The engine modules are imported on first use: `import tablegen` (the one-value lookup)
+# must not pay for the Kind records' dataclasses.
+def _rot():
+    from .kinds import rotation
+
+    return rotation
+
+
+def _harm():
+    from .kinds import harmonics
+
+    return harmonics
+
+
+def _phased():
+    from .values import phased as module
+
+    return module
 
 
 def _angle(name: str, value: object, over_pi: object, default: "tuple[str, Fraction] | None"):
@@ -84,11 +101,11 @@ def rotation_d(j, mp, m, *, beta=None, beta_over_pi=None, cos_beta=None, digits:
     t = _parse_jmm(j, mp, m, max_j)
     b = _beta(beta, beta_over_pi, cos_beta)
     if b is None:
-        return d2(*t)
+        return _rot().d2(*t)
     if b[0] == "cos":
-        return d_at_cos2(*t, b[1], b[2])
+        return _rot().d_at_cos2(*t, b[1], b[2])
     check_digits(digits)
-    f = d2(*t)
+    f = _rot().d2(*t)
     if f == f.factor:  # a constant function (d^0_00 = 1): exact at every angle
         return f.factor.decimal(digits)
     return decided_decimal(_bounds(lambda iv: f.interval(_radians(b[0], b[1], iv), iv)), digits)
@@ -98,10 +115,10 @@ def rotation_d_matrix(j, *, beta=None, beta_over_pi=None, cos_beta=None, digits:
     """The whole matrix d^j, rows m' = j, j-1, ..., -j and columns m in the same order (tuples)."""
     tj = parse_j(j, "j", max_j)
     if beta is None and beta_over_pi is None and cos_beta is None:
-        return d_matrix2(tj)
+        return _rot().d_matrix2(tj)
     b = _beta(beta, beta_over_pi, cos_beta)
     if b[0] == "cos":
-        return d_matrix_at_cos2(tj, b[1], b[2])
+        return _rot().d_matrix_at_cos2(tj, b[1], b[2])
     ms = [Fraction(k, 2) for k in range(tj, -tj - 1, -2)]
     return tuple(tuple(rotation_d(Fraction(tj, 2), a, c, beta=beta, beta_over_pi=beta_over_pi,
                                   cos_beta=cos_beta, digits=digits, max_j=max_j) for c in ms) for a in ms)
@@ -118,18 +135,18 @@ def rotation_D(j, mp, m, *, alpha=None, beta=None, gamma=None, alpha_over_pi=Non
     zero = ("pi", Fraction(0))
     given = [v for v in (alpha, beta, gamma, alpha_over_pi, beta_over_pi, gamma_over_pi, cos_beta) if v is not None]
     if not given:
-        return RotationD(tmp, tm, d2(tj, tmp, tm))
+        return _rot().RotationD(tmp, tm, _rot().d2(tj, tmp, tm))
     a = _angle("alpha", alpha, alpha_over_pi, zero)
     g = _angle("gamma", gamma, gamma_over_pi, zero)
     b = _beta(beta, beta_over_pi, cos_beta, ("cos", Fraction(1), (1, 1)))
     if a[0] == g[0] == "pi":
         turn = -(tmp * a[1] + tm * g[1]) / 4  # exp(-i m' alpha - i m gamma) = exp(2 pi i turn)
         if b[0] == "cos":
-            return PhasedSurd(d_at_cos2(tj, tmp, tm, b[1], b[2]), turn)
+            return _phased().PhasedSurd(_rot().d_at_cos2(tj, tmp, tm, b[1], b[2]), turn)
         d_text = rotation_d(Fraction(tj, 2), Fraction(tmp, 2), Fraction(tm, 2), beta=_as_text(b), digits=digits)
-        return _phased_decimal(d_text, turn, lambda iv: d2(tj, tmp, tm).interval(_radians(b[0], b[1], iv), iv), digits)
+        return _phased_decimal(d_text, turn, lambda iv: _rot().d2(tj, tmp, tm).interval(_radians(b[0], b[1], iv), iv), digits)
     check_digits(digits)
-    f = d2(tj, tmp, tm)
+    f = _rot().d2(tj, tmp, tm)
 
     def part(fn):
         def interval(iv):
@@ -170,8 +187,8 @@ def _phased_decimal(real_text: str, turn: Fraction, interval_fn, digits: int) ->
 def spherical_y(l, m, *, theta=None, phi=None, theta_over_pi=None, phi_over_pi=None, cos_theta=None,
                 digits: int = 15, max_j=None):
     """Y_l^m(theta, phi), Condon–Shortley phase ((-1)^m in Y, not in P_l^m): the function or decimal text."""
-    t = SPHERICAL_Y.parse((l, m), max_j)
-    y = y2(*t)
+    t = _harm().SPHERICAL_Y.parse((l, m), max_j)
+    y = _harm().y2(*t)
     given = [v for v in (theta, phi, theta_over_pi, phi_over_pi, cos_theta) if v is not None]
     if not given:
         return y
