@@ -8,6 +8,7 @@ Condon-Shortley phase convention throughout.  Every function returns a
 from .coefficients import cg, ninej, racah_w, sixj, threej, why_zero
 from .errors import QuantumNumberError, TablegenError
 from .values import ExactSum, Surd, phase
+from .rotations import rotation_D, rotation_d, rotation_d_matrix, spherical_y
 
 __version__ = "0.1.0"
 
@@ -21,6 +22,10 @@ __all__ = [
     "Surd",
     "ExactSum",
     "phase",
+    "rotation_d",
+    "rotation_D",
+    "rotation_d_matrix",
+    "spherical_y",
     "TablegenError",
     "QuantumNumberError",
     "__version__",
