@@ -5,7 +5,8 @@ Condon-Shortley phase convention throughout.  Every function returns a
 """
 
 from .coefficients import cg, ninej, racah_w, sixj, threej, why_zero
-from .errors import QuantumNumberError, TablegenError
+from .errors import QuantumNumberError, TablegenError, TreeError
+from .recoupling import lsjj_matrices, recoupling, recoupling_matrix, recoupling_working
 from .surd import Surd
 
 __version__ = "0.1.0"
@@ -17,6 +18,7 @@ __all__ = [
     "racah_w",
     "ninej",
     "why_zero",
+    "recoupling", "recoupling_matrix", "recoupling_working", "lsjj_matrices", "TreeError",
     "Surd",
     "TablegenError",
     "QuantumNumberError",

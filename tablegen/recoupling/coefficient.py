@@ -12,6 +12,7 @@ from __future__ import annotations
 
 from functools import lru_cache
 
+from ..errors import TreeError
 from ..surd import Surd
 from ._exact import surd_sum
 from .moves import allowed, exchange_sign, four_leaf, reassociate
@@ -24,9 +25,16 @@ _ZERO = Surd._trusted(0, 0, 1)
 _ONE = Surd._trusted(1, 1, 1)
 
 
-@lru_cache(maxsize=4096)
 def pair_of(text1: str, text2: str) -> TreePair:
     """Parsed and cross-checked trees, cached by their texts."""
+    for which, text in (("tree 1", text1), ("tree 2", text2)):
+        if not isinstance(text, str):
+            raise TreeError(which, repr(text), None, "a tree must be given as text")
+    return _pair_cached(text1, text2)
+
+
+@lru_cache(maxsize=4096)
+def _pair_cached(text1: str, text2: str) -> TreePair:
     return parse_pair(text1, text2)
 
 

@@ -21,7 +21,8 @@ for j1 < j2, and the entry itself for j1 = j2.  The matrices stay orthogonal.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
+
 
 from ..errors import QuantumNumberError
 from ..spins import half_text
@@ -45,8 +46,7 @@ def term_symbol(L: int, S2: int, J: int, latex: bool = False) -> str:
     return f"{S2 + 1}{letter}{J}"
 
 
-@dataclass(frozen=True)
-class LsJjMatrix:
+class LsJjMatrix(NamedTuple):
     """One J: rows (j1, j2) doubled, columns (L, 2S), exact entries."""
 
     l1: int

@@ -9,7 +9,8 @@ intermediates of tree 1, columns by those of tree 2 (each label a tuple of
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
+
 
 from ..spins import half_text
 from ..surd import Surd
@@ -49,8 +50,7 @@ def label_text(label: Label) -> str:
     return " ".join(f"{name}={half_text(v)}" for name, v in label)
 
 
-@dataclass(frozen=True)
-class RecouplingMatrix:
+class RecouplingMatrix(NamedTuple):
     """An exact recoupling matrix with labelled rows (tree 1) and columns (tree 2)."""
 
     first: str

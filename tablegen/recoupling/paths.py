@@ -17,10 +17,9 @@ both the evaluation (coefficient.py) and the formula (working.py) read.
 from __future__ import annotations
 
 import heapq
-from dataclasses import dataclass
 from functools import lru_cache
 from itertools import count
-from typing import Union
+from typing import NamedTuple, Union
 
 from ..errors import TooLargeError
 from .trees import Leaf, Node, Tree, TreePair, clade, nodes, tree_text
@@ -36,8 +35,7 @@ Ordered = Union[str, tuple]  # ordered: a leaf name or (left, right)
 _COST_6J, _COST_9J, _PER_CLADE = 4, 6, 3
 
 
-@dataclass(frozen=True)
-class Step:
+class Step(NamedTuple):
     """One move on the ordered tree, with the values it involves named.
 
     kind "exchange": args (x, y, z), |(x y)z> = (-1)^(x+y-z) |(y x)z>.
@@ -55,8 +53,7 @@ class Step:
     destroyed: tuple[str, ...] = ()
 
 
-@dataclass(frozen=True)
-class Plan:
+class Plan(NamedTuple):
     """The whole path: steps, summation names, and names that must agree at the end."""
 
     steps: tuple[Step, ...]

@@ -18,8 +18,7 @@ naming the tree, the character position (counted from 1) and the rule.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-from typing import Iterator, Union
+from typing import NamedTuple, Iterator, Union
 
 from ..errors import QuantumNumberError, TreeError
 from ..spins import half_text, parse_j
@@ -27,16 +26,14 @@ from ..spins import half_text, parse_j
 __all__ = ["Leaf", "Node", "Tree", "parse_tree", "TreePair", "parse_pair", "tree_text"]
 
 
-@dataclass(frozen=True)
-class Leaf:
+class Leaf(NamedTuple):
     """One angular momentum being coupled."""
 
     name: str
     position: int = 0
 
 
-@dataclass(frozen=True)
-class Node:
+class Node(NamedTuple):
     """Two parts coupled to the value called ``name``."""
 
     left: "Tree"
@@ -157,15 +154,14 @@ def parse_tree(text: str, which: str = "tree") -> Node:
         kind = "leaf" if isinstance(item, Leaf) else "intermediate"
         if item.name in seen:
             first_kind, first_pos = seen[item.name]
-            rule = (f"leaf {item.name} used twice (first at character {first_pos})" if kind == first_kind == "leaf"
+            rule = (f"{kind} {item.name} used twice (first at character {first_pos})" if kind == first_kind
                     else f"name {item.name} clashes: {kind} here, {first_kind} at character {first_pos}")
             raise TreeError(which, text, item.position, rule)
         seen[item.name] = (kind, item.position)
     return t
 
 
-@dataclass(frozen=True)
-class TreePair:
+class TreePair(NamedTuple):
     """Two trees over the same leaves, checked against each other."""
 
     first: Node
@@ -204,8 +200,6 @@ def parse_pair(text1: str, text2: str) -> TreePair:
             raise TreeError("tree 2", text2, leaf.position, f"leaf {name} is missing from tree 1")
     inner1 = {n.name: n for n in nodes(t1)}
     for n in nodes(t2):
-        if n.name in l1:
-            raise TreeError("tree 2", text2, n.position, f"name {n.name} clashes: intermediate here, leaf in tree 1")
         other = inner1.get(n.name)
         if other is not None and clade(other) != clade(n):
             rule = (f"name {n.name} clashes: it couples {' '.join(sorted(clade(n)))} here"

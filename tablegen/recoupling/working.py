@@ -10,8 +10,9 @@ exact: (-1)^(4x) = 1 for every integer or half-integer x.
 
 from __future__ import annotations
 
+from typing import NamedTuple
+
 import re
-from dataclasses import dataclass
 
 from ..surd import Surd
 from .coefficient import pair_of, recoupling
@@ -20,8 +21,7 @@ from .paths import Plan, Step, plan_path
 __all__ = ["Working", "recoupling_working"]
 
 
-@dataclass(frozen=True)
-class Working:
+class Working(NamedTuple):
     """A recoupling coefficient shown as a formula, with the moves it came from."""
 
     text: str
