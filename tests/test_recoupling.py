@@ -285,3 +285,101 @@ def test_triad_failure_is_an_exact_zero_and_values_are_surds():
     assert recoupling("((a b)e c)f", "(a (b c)g)f", a=1, b=1, c=1, e=3, f=1, g=1) == 0
     v = recoupling("((a b)e c)f", "(a (b c)g)f", a=1, b="1/2", c=1, e="3/2", f="3/2", g="1/2")
     assert isinstance(v, Surd) and v == brute("((a b)e c)f", "(a (b c)g)f", dict(a=2, b=1, c=2, e=3, f=3, g=1))
+
+
+# -- the working ---------------------------------------------------------------------
+def _evaluate_text_formula(text: str, tj: dict[str, int]):
+    """Evaluate the plain-text working with sympy's 6j and 9j (an independent reading of it)."""
+    import re
+
+    import sympy
+    from sympy.physics.wigner import wigner_6j, wigner_9j
+
+    body = text.split(" = ")[1]
+    summed: list[str] = []
+    m = re.match(r"sum_\{([^}]*)\} ", body)
+    if m:
+        summed, body = m.group(1).split(","), body[m.end():]
+    tokens = re.findall(r"delta\(\w+,\w+\)|\(-1\)\^\([^)]*\)|sqrt\((?:\(2\w+\+1\))+\)|\(2\w+\+1\)|\{[^}]*\}", body)
+    assert "".join(tokens) == body, (tokens, body)  # the formula is made of these pieces only
+
+    def value(env: dict):
+        h = {k: sympy.Rational(v, 2) for k, v in env.items()}
+        out = sympy.Integer(1)
+        for t in tokens:
+            if t.startswith("delta"):
+                a, b = t[6:-1].split(",")
+                out *= int(env[a] == env[b])
+            elif t.startswith("(-1)"):
+                expr = sympy.Integer(0)
+                for sign, k, name in re.findall(r"([+-]?)(\d*)([A-Za-z_]\w*)", t[6:-1]):
+                    expr += (-1 if sign == "-" else 1) * int(k or 1) * h[name]
+                out *= sympy.Integer(-1) ** expr
+            elif t.startswith("sqrt"):
+                for name in re.findall(r"\(2(\w+)\+1\)", t):
+                    out *= sympy.sqrt(2 * h[name] + 1)
+            elif t.startswith("(2"):
+                out *= 2 * h[t[2:-3]] + 1
+            else:
+                args = [h[n] for n in t[1:-1].replace(";", "").split()]
+                try:
+                    out *= wigner_6j(*args) if len(args) == 6 else wigner_9j(*args)
+                except ValueError:  # sympy refuses a triad with a half-integer sum: the symbol is 0
+                    return sympy.Integer(0)
+        return out
+
+    total = sympy.Integer(0)
+    top = 2 * sum(v for k, v in tj.items() if len(k) == 1)  # no coupling exceeds the sum of the leaves
+    for choice in itertools.product(range(top + 1), repeat=len(summed)):
+        total += value({**tj, **dict(zip(summed, choice))})
+    return sympy.nsimplify(total)
+
+
+@pytest.mark.parametrize("t1,t2,tj", [
+    ("((a b)e c)f", "(a (b c)g)f", dict(a=2, b=1, c=2, e=3, f=3, g=1)),
+    ("((a b)e c)f", "((c a)g b)f", dict(a=3, b=2, c=1, e=3, g=2, f=2)),
+    ("((a b)e (c d)h)J", "((a c)g (b d)k)J", dict(a=1, b=2, c=3, d=1, e=3, h=2, g=2, k=3, J=1)),
+    ("(((a b)e c)f d)J", "((d b)g (c a)k)J", dict(a=2, b=1, c=3, d=2, e=1, f=2, g=3, k=1, J=2)),
+    ("((a b)e c)f", "((b a)g c)f", dict(a=2, b=1, c=2, e=3, g=3, f=3)),
+])
+def test_working_formula_evaluates_to_the_value(t1, t2, tj):
+    from tablegen.recoupling import recoupling_working
+
+    w = recoupling_working(t1, t2, **{k: half_text(v) for k, v in tj.items()})
+    assert w.value == recoupling(t1, t2, **{k: half_text(v) for k, v in tj.items()}) and w.value
+    assert w.text.endswith(f" = {w.value}")
+    assert (_evaluate_text_formula(w.text, tj) - w.value.to_sympy()).simplify() == 0, w.text
+    assert len(w.path) == len(w.path_latex) >= 1 and "\n" not in w.latex
+    assert w.latex.startswith(r"\langle ") and (r"\begin{Bmatrix}" in w.latex) == ("{" in w.text.split(" = ")[1])
+
+
+def test_working_three_leaf_text_is_the_textbook_formula():
+    # Edmonds 1957, eq. 6.1.5, written out
+    from tablegen.recoupling import recoupling_working
+
+    w = recoupling_working("((a b)e c)f", "(a (b c)g)f")
+    assert w.text == "<((a b)e c)f|(a (b c)g)f> = (-1)^(a+b+c+f)sqrt((2e+1)(2g+1)){a b e; c f g}"
+    assert w.value is None
+    w = recoupling_working("(((j1 j2)j12 j3)j123 j4)J", "((j1 j2)j12 (j3 j4)j34)J")
+    assert "j_{12}" in w.latex and "j_{123}" in w.latex
+
+
+def test_working_latex_compiles(tmp_path):
+    import shutil
+    import subprocess
+
+    if not shutil.which("pdflatex"):
+        pytest.skip("pdflatex not installed")
+    from tablegen.recoupling import recoupling_working
+
+    lines = []
+    for t1, t2 in [("((a b)e c)f", "(a (b c)g)f"), ("((a b)e (c d)h)J", "((a c)g (b d)k)J"),
+                   ("(((a b)e c)f d)J", "(a (b (c d)k)h)J"), ("((j1 j2)j12 j_3)J", "(j1 (j2 j_3)j23)J")]:
+        w = recoupling_working(t1, t2)
+        lines.append(r"\[" + w.latex + r"\]")
+        lines += [r"\[" + x + r"\]" for x in w.path_latex]
+    doc = "\\documentclass{article}\\usepackage{amsmath}\\begin{document}\n" + "\n".join(lines) + "\n\\end{document}\n"
+    (tmp_path / "w.tex").write_text(doc)
+    run = subprocess.run(["pdflatex", "-interaction=nonstopmode", "-halt-on-error", "w.tex"], cwd=tmp_path,
+                         capture_output=True, text=True, timeout=120)
+    assert run.returncode == 0, run.stdout[-2000:]

@@ -86,7 +86,8 @@ def _symbol_args(step: Step) -> tuple[str, ...]:
     if step.kind == "reassociate":  # <((a b)e c)f|(a (b c)g)f> ~ {a b e; c f g}
         a, b, c, e, f, g = step.args
         return (a, b, e, c, f, g)
-    return step.args  # {a b e; c d h; g k j}
+    a, b, c, d, e, h, g, k, j = step.args  # <((a b)e (c d)h)j|((a c)g (b d)k)j> ~ {a b e; c d h; g k j}
+    return (a, b, e, c, d, h, g, k, j)
 
 
 def _step_factor(step: Step, tex: bool) -> str:
