@@ -383,3 +383,18 @@ def test_working_latex_compiles(tmp_path):
     run = subprocess.run(["pdflatex", "-interaction=nonstopmode", "-halt-on-error", "w.tex"], cwd=tmp_path,
                          capture_output=True, text=True, timeout=120)
     assert run.returncode == 0, run.stdout[-2000:]
+
+
+def test_paths_of_big_trees_end_at_tree_two():
+    # beyond the exact search's bound the weighted search still gives a path that ends at tree 2
+    from tablegen.recoupling.trees import tree_text
+
+    pairs = [
+        ("(((((((a b)e1 c)e2 d)e3 e)e4 f)e5 g)e6 h)J", "((h (f (d b)g1)g2)g3 ((g e)g4 (c a)g5)g6)J"),
+        ("(((((((((((a b)e1 c)e2 d)e3 e)e4 f)e5 g)e6 h)e7 i)e8 k)e9 l)e10 m)J",
+         "((((m e)g1 (a f)g2)g3 (((c h)g4 b)g5 (g d)g6)g7)g8 ((l i)g9 k)g10)J"),
+    ]
+    for t1, t2 in pairs:
+        plan = plan_path(pair_of(t1, t2))
+        assert plan.steps[0].before == t1 and plan.steps[-1].after == tree_text(parse_tree(t2))
+        assert all(a.after == b.before for a, b in zip(plan.steps, plan.steps[1:]))

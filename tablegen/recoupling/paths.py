@@ -6,8 +6,10 @@ afterwards, when the path is laid onto the ordered trees.  The costly moves
 are re-association (a 6j, cost 4) and the four-leaf change (one 9j, cost 6,
 instead of three 6j and a sum).  A* with "missing target couplings" as the
 admissible estimate (a move creates at most one, a 9j at most two) finds a
-cheapest path; the number of unordered trees grows as (2n-3)!!, so the search
-is bounded and a request beyond the bound is refused.
+cheapest path.  The number of unordered trees grows as (2n-3)!! (945 for six
+leaves), so the search is bounded: beyond MAX_SEARCH trees a weighted A*
+(estimate x4, short but not always shortest) takes over, and beyond its own
+bound the request is refused with a TooLargeError.
 
 The result is a :class:`Plan`: the ordered steps with every participating
 value named (leaf, tree-1 or tree-2 name, or a fresh summation name), which
@@ -26,8 +28,11 @@ from .trees import Leaf, Node, Tree, TreePair, clade, nodes, tree_text
 
 __all__ = ["Step", "Plan", "plan_path", "MAX_SEARCH"]
 
-#: Unordered trees the search may visit before it gives up (a 9-leaf change fits).
-MAX_SEARCH = 200_000
+#: Unordered trees the exact search may visit; beyond it a greedy (weighted) search takes
+#: over with the same budget, and beyond that the request is refused.
+MAX_SEARCH = 5_000
+_GREEDY_WEIGHT = 4
+_GREEDY_SEARCH = 10 * MAX_SEARCH
 
 Shape = Union[str, frozenset]  # unordered: a leaf name or a frozenset of two shapes
 Ordered = Union[str, tuple]  # ordered: a leaf name or (left, right)
@@ -114,9 +119,27 @@ def _neighbours(s: Shape, ninej: bool):
 
 
 def _search(start: Shape, goal: Shape, ninej: bool, leaves: int) -> list[tuple]:
-    """A cheapest list of unordered moves from start to goal (A*)."""
+    """A cheapest list of unordered moves (A*), or a short one (weighted A*) for big trees."""
+    try:
+        return _astar(start, goal, ninej, 1, MAX_SEARCH)
+    except _Budget:
+        pass
+    try:
+        return _astar(start, goal, ninej, _GREEDY_WEIGHT, _GREEDY_SEARCH)
+    except _Budget:
+        raise TooLargeError(
+            f"a path between two trees of {leaves} leaves", f"more than {_GREEDY_SEARCH} trees searched",
+            "the path search is bounded; split the change into smaller recouplings",
+        ) from None
+
+
+class _Budget(Exception):
+    """The search visited MAX_SEARCH trees."""
+
+
+def _astar(start: Shape, goal: Shape, ninej: bool, weight: int, budget: int) -> list[tuple]:
     target = _clades(goal)
-    per = _PER_CLADE if ninej else _COST_6J
+    per = weight * (_PER_CLADE if ninej else _COST_6J)
 
     def h(s: Shape) -> int:
         return per * len(target - _clades(s))
@@ -136,11 +159,8 @@ def _search(start: Shape, goal: Shape, ninej: bool, leaves: int) -> list[tuple]:
             return moves[::-1]
         if g > best.get(s, g):
             continue
-        if len(best) > MAX_SEARCH:
-            raise TooLargeError(
-                f"a path between two trees of {leaves} leaves", f"more than {MAX_SEARCH} trees searched",
-                "the path search is bounded; split the change into smaller recouplings",
-            )
+        if len(best) > budget:
+            raise _Budget
         for cost, new, move in _neighbours(s, ninej):
             ng = g + cost
             if ng < best.get(new, ng + 1):
