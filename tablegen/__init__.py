@@ -6,8 +6,9 @@ Condon-Shortley phase convention throughout.  Every function returns a
 """
 
 from .coefficients import cg, ninej, racah_w, sixj, threej, why_zero
-from .errors import QuantumNumberError, TablegenError
+from .errors import QuantumNumberError, TablegenError, TreeError
 from .values import ExactSum, Surd, phase
+from .recoupling import lsjj_matrices, recoupling, recoupling_matrix, recoupling_working
 from .rotations import rotation_D, rotation_d, rotation_d_matrix, spherical_y
 
 __version__ = "0.1.0"
@@ -19,6 +20,7 @@ __all__ = [
     "racah_w",
     "ninej",
     "why_zero",
+    "recoupling", "recoupling_matrix", "recoupling_working", "lsjj_matrices", "TreeError",
     "Surd",
     "ExactSum",
     "phase",

@@ -14,6 +14,7 @@ __all__ = [
     "RecipeError",
     "OutputError",
     "TooLargeError",
+    "TreeError",
 ]
 
 
@@ -59,6 +60,18 @@ class OutputError(TablegenError, OSError):
         self.path = path
         self.rule = rule
         super().__init__(f"folder {str(path)!r}: {rule}")
+
+
+class TreeError(TablegenError, ValueError):
+    """A coupling tree (or a pair of trees) that breaks a rule of the notation."""
+
+    def __init__(self, which: str, text: str, position: int | None, rule: str) -> None:
+        self.which = which
+        self.text = text
+        self.position = position
+        self.rule = rule
+        where = "" if position is None else f" at character {position}"
+        super().__init__(f"{which} {_show(text)}{where}: {rule}")
 
 
 def _show(value: object) -> str:
