@@ -12,3 +12,59 @@ from pathlib import Path
 _ROOT = Path(__file__).resolve().parent.parent
 if str(_ROOT) not in sys.path:
     sys.path.insert(0, str(_ROOT))
+
+
+# Test helper kept for the recoupling tests (independent of tablegen.values.ExactSum).
+from fractions import Fraction
+from math import isqrt
+from tablegen.values.surd import Surd  # noqa: E402
+
+
+def _rational_root(f: Fraction) -> Fraction | None:
+    """sqrt(f) for a rational f >= 0 when it is rational, else None."""
+    n, d = f.numerator, f.denominator
+    rn, rd = isqrt(n), isqrt(d)
+    if rn * rn == n and rd * rd == d:
+        return Fraction(rn, rd)
+    return None
+
+
+class ExactSum:
+    """An exact sum of terms weight * (sign * sqrt(p/q)), with rational weights.
+
+    The running sum is kept as sum_k c_k * sqrt(r_k) with rational c_k and r_k,
+    no two r_k in the same square class (r_i * r_k never a rational square).
+    Square roots of distinct square-free integers are linearly independent
+    over the rationals (Besicovitch 1940), so this form is unique: the sum is
+    zero exactly when every c_k is zero, and it is a single +-sqrt(rational)
+    exactly when at most one c_k is non-zero.  Only integer square roots are
+    taken; nothing is factored and nothing is rounded.
+    """
+
+    def __init__(self) -> None:
+        self._classes: list[list[Fraction]] = []  # [r_k, c_k] pairs
+
+    def add(self, value: Surd, weight: int | Fraction = 1) -> "ExactSum":
+        """Add weight * value; returns self so that calls can be chained."""
+        if not value or not weight:
+            return self
+        r = Fraction(value.p, value.q)
+        w = Fraction(weight) * value.sign
+        for entry in self._classes:
+            root = _rational_root(r * entry[0])
+            if root is not None:
+                # sqrt(r) = sqrt(r * r_k) / r_k * sqrt(r_k)
+                entry[1] += w * root / entry[0]
+                return self
+        self._classes.append([r, w])
+        return self
+
+    def total(self) -> Surd:
+        """The sum as a Surd (AssertionError if it is not +-sqrt of a rational)."""
+        live = [(r, c) for r, c in self._classes if c]
+        assert len(live) <= 1, f"the sum mixes square classes: {live}"
+        if not live:
+            return Surd(0)
+        r, c = live[0]
+        square = c * c * r
+        return Surd(1 if c > 0 else -1, square.numerator, square.denominator)
