@@ -50,7 +50,8 @@ def _build_parser():
     value = sub.add_parser(
         "value",
         help="print one exact value",
-        description="Print one coefficient exactly and as a decimal. KIND is cg, 3j, 6j, w or 9j; "
+        description="Print one coefficient exactly and as a decimal. KIND is cg, 3j, 6j, w or 9j "
+        "(or d, D, Y for rotation functions and spherical harmonics: see 'tablegen value d --help'); "
         "the arguments follow the order of the symbol: cg j1 m1 j2 m2 J M; 3j j1 j2 j3 m1 m2 m3; "
         "6j j1 j2 j3 j4 j5 j6; w a b c d e f; 9j j11 j12 j13 j21 j22 j23 j31 j32 j33. "
         "Quantum numbers may be written 3/2, 1.5, -1/2 or 2.",
@@ -94,6 +95,10 @@ def _build_parser():
     )
     verify.add_argument("folder", metavar="DIR")
     verify.set_defaults(run=_run_verify)
+    from .commands import SUMMARIES  # listed here for --help; tablegen/commands/ runs them
+
+    for name, summary in SUMMARIES:
+        sub.add_parser(name, help=summary, add_help=False)
     return parser
 
 
@@ -155,6 +160,9 @@ def main(argv: list[str] | None = None) -> int:
     """Run the command line; return the exit status."""
     argv = list(sys.argv[1:] if argv is None else argv)
     try:
+        command = _extra_command(argv)  # rotation functions, recouple, lsjj: tablegen/commands/
+        if command is not None:
+            return command()
         quick = _quick_value_call(argv)
         if quick is not None:
             return _run_value(quick)
@@ -177,6 +185,12 @@ def main(argv: list[str] | None = None) -> int:
         return 130
     except SystemExit as exc:  # --help and --version end through argparse's exit
         return exc.code if isinstance(exc.code, int) else EXIT_OK
+
+
+def _extra_command(argv: list[str]):
+    from .commands import route
+
+    return route(argv)
 
 
 def _run_value(ns) -> int:

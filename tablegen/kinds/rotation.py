@@ -23,7 +23,8 @@ from ..values.surd import Surd
 from ..values.trig_poly import TrigPoly, poly_mul
 from . import Kind, Notation, ZeroRule
 
-__all__ = ["d2", "d_at_cos2", "d_matrix2", "d_matrix_at_cos2", "RotationD", "d_zero_rule", "ROTATION_D_SMALL", "CACHE_MAX_TJ"]
+__all__ = ["d2", "d_at_cos2", "d_matrix2", "d_matrix_at_cos2", "RotationD", "d_zero_rule", "D2", "ROTATION_D_SMALL",
+           "ROTATION_D_BIG", "CACHE_MAX_TJ"]
 
 CACHE_MAX_TJ = 40  # functions for j <= 20 are cached; larger ones are rebuilt on demand
 _HALF = {(0, 0): "1", (1, 1): "sin", (1, 0): "cos/2", (0, 1): "sin/2"}
@@ -241,4 +242,22 @@ ROTATION_D_SMALL = Kind(
     zero_rule=d_zero_rule,
     notation=Notation("function", ((0,), (1, 2)), name="d"),
     members=_d_members,
+)
+
+
+def D2(tj: int, tmp: int, tm: int) -> RotationD:
+    """D^j_{m'm}(alpha, beta, gamma) as an exact function, from doubled j, m', m."""
+    return RotationD(tmp, tm, d2(tj, tmp, tm))
+
+
+#: The Kind record for D^j_{m'm}(alpha, beta, gamma); like d, not in the registry of tabulated kinds.
+ROTATION_D_BIG = Kind(
+    key="D",
+    title="Wigner rotation function D",
+    arguments=("j", "mp", "m"),
+    j_positions=(0,),
+    parse=_d_parse,
+    doubled=D2,  # returns a RotationD
+    zero_rule=d_zero_rule,
+    notation=Notation("function", ((0,), (1, 2)), name="D"),
 )
