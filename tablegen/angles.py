@@ -53,6 +53,8 @@ def parse_angle(value: object, argument: str) -> tuple[str, Fraction]:
         text = value.strip().replace(" ", "").replace("π", "pi").replace("\u2212", "-")
         m = _PI_TEXT.match(text)
         if m:
+            if m.group(3) is not None and int(m.group(3)) == 0 or (m.group(2) or "").endswith("/0"):
+                raise QuantumNumberError(argument, value, "division by zero in the angle")
             r = Fraction(m.group(2) or 1) / int(m.group(3) or 1)
             return "pi", -r if m.group(1) == "-" else r
         try:

@@ -111,6 +111,8 @@ def _evaluate(fk, t, given, digits):
         if exc.argument in given:
             raise QuantumNumberError(_option(exc.argument), exc.value, exc.rule) from None
         raise
+    except ZeroDivisionError:
+        raise
     except ArithmeticError as exc:  # a value that may be exactly zero at an angle given only approximately
         raise CommandLineError(f"tablegen value {fk.key}: {exc}; give the angle by its exact cosine "
                                f"(--cos-{fk.polar}) to decide it") from None
