@@ -21,6 +21,8 @@ from fractions import Fraction
 from pathlib import Path
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 import sympy
 from sympy.physics.quantum.spin import Rotation
 from sympy.physics.wigner import wigner_d_small
@@ -355,3 +357,24 @@ def test_subprocess_value_and_error():
     bad = subprocess.run([sys.executable, "-m", "tablegen", "value", "d", "1", "1", "0", "--beta", "pi/"],
                          capture_output=True, text=True, env=env, cwd=str(ROOT), timeout=120)
     assert bad.returncode == 2 and "Traceback" not in bad.stderr and len(bad.stderr.splitlines()) == 1
+
+
+_ANGLE_TEXT = st.text(alphabet="pi/*-+0123456789.π eI", min_size=0, max_size=10)
+
+
+@settings(max_examples=120, deadline=None)
+@given(st.sampled_from(["d", "D", "Y"]), st.lists(st.sampled_from(["0", "1", "1/2", "-1/2", "2", "-1", "3/2", "x"]), min_size=2, max_size=3),
+       st.sampled_from(["--alpha", "--beta", "--gamma", "--theta", "--phi", "--cos-beta", "--cos-theta"]), _ANGLE_TEXT)
+def test_fuzz_angles_never_a_traceback(key, args, option, angle):
+    """Random arguments and angle texts: exit 0, or 2 with exactly one error line (never a traceback)."""
+    import contextlib
+    import io
+
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        status = cli.main(["value", key, *args, f"{option}={angle}", "--digits", "12"])
+    assert status in (0, 2), err.getvalue()
+    if status == 2:
+        assert out.getvalue() == "" and len(err.getvalue().splitlines()) == 1, err.getvalue()
+    else:
+        assert err.getvalue() == ""

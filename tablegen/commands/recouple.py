@@ -12,12 +12,13 @@ from __future__ import annotations
 
 from .common import CommandLineError, OneLineParser, check_digits_option, field, options_first, print_json
 
-__all__ = ["run", "MAX_MATRIX_ENTRIES", "MAX_SUM_TERMS"]
+__all__ = ["run", "dimension", "grid", "work_estimate", "MAX_MATRIX_ENTRIES", "MAX_WORK"]
 
 #: Largest matrix computed without --allow-large (each entry is a sum along a path of moves).
 MAX_MATRIX_ENTRIES = 10_000
-#: Largest bound on the terms of one coefficient's nested sum without --allow-large.
-MAX_SUM_TERMS = 2_000_000
+#: Largest estimated work for one coefficient without --allow-large (see work_estimate;
+#: about a second here: a 9j at j = 200, or a 5-leaf sum at j = 40).
+MAX_WORK = 1_000_000
 
 CONVENTION = ("<tree1|tree2> is the overlap of the two coupled states; each node (x y)z couples with the "
               "Clebsch-Gordan coefficient <x mx; y my | z mz> (Condon-Shortley phase), so exchanging the "
@@ -160,21 +161,50 @@ def _zero_rule(pair, plan, tj: dict[str, int]) -> str:
     return "cancellation: the sum over the intermediates cancels (no selection rule)"
 
 
-def _guard_sum(plan, tj: dict[str, int], allow_large: bool) -> None:
-    """Refuse, before computing, a nested sum whose term count may be out of reach."""
+def work_estimate(plan, tj: dict[str, int]) -> tuple[int, int]:
+    """(work units, terms) of evaluating a plan: before computing, from the triangle bounds.
+
+    A unit is one term of a 6j sum; a 6j of largest j costs j + 1 units, a 9j (j + 1)^3 / 8
+    (its sum over 6j products, measured here), each times the summed values alive at that step.
+    """
     bound = dict(tj)
-    terms = 1
+    alive: dict[str, int] = {}
+    work, terms = 0, 1
     for step in plan.steps:
+        if step.kind == "exchange":
+            continue
+        choices = 1
         for name, ranges in step.created:
             if name in tj:
                 continue
             bound[name] = min(bound[x] + bound[y] for x, y in ranges)
-            terms *= min(min(bound[x], bound[y]) for x, y in ranges) + 1
-    if terms > MAX_SUM_TERMS and not allow_large:
+            count = min(min(bound[x], bound[y]) for x, y in ranges) + 1
+            alive[name] = count
+            choices *= count
+        terms = max(terms, _product(alive.values()))
+        j = max(bound[a] for a in step.args) // 2 + 1
+        work += _product(alive.values()) * (j if step.kind == "reassociate" else j ** 3 // 8)
+        for name in step.destroyed:
+            alive.pop(name, None)
+    return work, terms
+
+
+def _product(values) -> int:
+    out = 1
+    for v in values:
+        out *= v
+    return out
+
+
+def _guard_sum(plan, tj: dict[str, int], allow_large: bool) -> None:
+    """Refuse, before computing, a coefficient whose nested sums are out of reach."""
+    work, terms = work_estimate(plan, tj)
+    if work > MAX_WORK and not allow_large:
         from ..errors import TooLargeError
 
-        raise TooLargeError("recoupling coefficient", f"up to {terms:,} terms in its sum over "
-                            f"{', '.join(plan.summed)}", f"refused above {MAX_SUM_TERMS:,} (--allow-large to insist)")
+        summed = f", up to {terms:,} terms in the sum over {', '.join(plan.summed)}" if plan.summed else ""
+        raise TooLargeError("recoupling coefficient", f"about {work:,} work units{summed}",
+                            f"refused above {MAX_WORK:,} (--allow-large to insist)")
 
 
 # -- the whole matrix ------------------------------------------------------------------
