@@ -83,14 +83,6 @@ def _bounds(interval_fn):
     return interval_bounds(interval_fn)
 
 
-def _complex_text(re: str, im: str) -> str:
-    if im == "0":
-        return re
-    if re == "0":
-        return f"{im}*I"
-    return f"{re} - {im[1:]}*I" if im.startswith("-") else f"{re} + {im}*I"
-
-
 def _parse_jmm(j, mp, m, max_j) -> tuple[int, int, int]:
     tj = parse_j(j, "j", max_j)
     return tj, parse_m(mp, "mp", tj, "j", max_j), parse_m(m, "m", tj, "j", max_j)
@@ -131,87 +123,58 @@ def rotation_D(j, mp, m, *, alpha=None, beta=None, gamma=None, alpha_over_pi=Non
     No angle: the function (RotationD).  Alpha, gamma exact multiples of pi and
     cos(beta) rational: a PhasedSurd.  Otherwise decimal text 'x + y*I'.
     """
-    tj, tmp, tm = _parse_jmm(j, mp, m, max_j)
-    zero = ("pi", Fraction(0))
+    t = _parse_jmm(j, mp, m, max_j)
     given = [v for v in (alpha, beta, gamma, alpha_over_pi, beta_over_pi, gamma_over_pi, cos_beta) if v is not None]
     if not given:
-        return _rot().RotationD(tmp, tm, _rot().d2(tj, tmp, tm))
-    a = _angle("alpha", alpha, alpha_over_pi, zero)
-    g = _angle("gamma", gamma, gamma_over_pi, zero)
-    b = _beta(beta, beta_over_pi, cos_beta, ("cos", Fraction(1), (1, 1)))
-    if a[0] == g[0] == "pi":
-        turn = -(tmp * a[1] + tm * g[1]) / 4  # exp(-i m' alpha - i m gamma) = exp(2 pi i turn)
-        if b[0] == "cos":
-            return _phased().PhasedSurd(_rot().d_at_cos2(tj, tmp, tm, b[1], b[2]), turn)
-        d_text = rotation_d(Fraction(tj, 2), Fraction(tmp, 2), Fraction(tm, 2), beta=_as_text(b), digits=digits)
-        return _phased_decimal(d_text, turn, lambda iv: _rot().d2(tj, tmp, tm).interval(_radians(b[0], b[1], iv), iv), digits)
-    check_digits(digits)
-    f = _rot().d2(tj, tmp, tm)
-
-    def part(fn):
-        def interval(iv):
-            d = 1 if b[0] == "cos" and f == f.factor else (
-                f.interval(iv.acos(iv.mpf(b[1].numerator) / b[1].denominator), iv) if b[0] == "cos"
-                else f.interval(_radians(b[0], b[1], iv), iv))
-            phase = -(tmp * _radians(a[0], a[1], iv) + tm * _radians(g[0], g[1], iv)) / 2
-            return (f.factor.sign * iv.sqrt(iv.mpf(f.factor.p) / f.factor.q) if d == 1 else d) * fn(iv, phase)
-        return interval
-
-    if not f:
-        return "0"
-    return _complex_text(decided_decimal(_bounds(part(lambda iv, x: iv.cos(x))), digits),
-                         decided_decimal(_bounds(part(lambda iv, x: iv.sin(x))), digits))
-
-
-def _as_text(b) -> object:
-    return f"{b[1]}*pi" if b[0] == "pi" else b[1]
-
-
-def _phased_decimal(real_text: str, turn: Fraction, interval_fn, digits: int) -> str:
-    """value * exp(2 pi i turn) for a real value known by interval: exact zero parts at quarter turns."""
-    t = turn % 1
-    if t in (0, Fraction(1, 2)):
-        return real_text if t == 0 else (real_text[1:] if real_text.startswith("-") else "-" + real_text)
-    if t in (Fraction(1, 4), Fraction(3, 4)):
-        im = real_text if t == Fraction(1, 4) else (real_text[1:] if real_text.startswith("-") else "-" + real_text)
-        return _complex_text("0", im)
-
-    def part(fn):
-        return _bounds(lambda iv: interval_fn(iv) * fn(2 * iv.pi * t.numerator / t.denominator))
-
-    from mpmath import iv as _iv
-
-    return _complex_text(decided_decimal(part(_iv.cos), digits), decided_decimal(part(_iv.sin), digits))
+        return _rot().RotationD(t[1], t[2], _rot().d2(*t))
+    angles = {"alpha": _angle("alpha", alpha, alpha_over_pi, None), "gamma": _angle("gamma", gamma, gamma_over_pi, None)}
+    if cos_beta is not None:
+        if beta is not None or beta_over_pi is not None:
+            raise QuantumNumberError("cos_beta", cos_beta, "give one of beta, beta_over_pi, cos_beta")
+        angles["cos_beta"] = cos_beta
+    else:
+        angles["beta"] = _angle("beta", beta, beta_over_pi, None)
+    value = _at("D", t, angles, digits)
+    return _phased().PhasedSurd(value, 0) if not isinstance(value, (str, _phased().PhasedSurd)) else value
 
 
 def spherical_y(l, m, *, theta=None, phi=None, theta_over_pi=None, phi_over_pi=None, cos_theta=None,
                 digits: int = 15, max_j=None):
     """Y_l^m(theta, phi), Condon–Shortley phase ((-1)^m in Y, not in P_l^m): the function or decimal text."""
     t = _harm().SPHERICAL_Y.parse((l, m), max_j)
-    y = _harm().y2(*t)
     given = [v for v in (theta, phi, theta_over_pi, phi_over_pi, cos_theta) if v is not None]
     if not given:
-        return y
-    check_digits(digits)
-    if not y.theta_part:
-        return "0"
-    zero = ("pi", Fraction(0))
-    p = _angle("phi", phi, phi_over_pi, zero)
+        return _harm().y2(*t)
+    angles = {"phi": _angle("phi", phi, phi_over_pi, None)}
     if cos_theta is not None:
         if theta is not None or theta_over_pi is not None:
             raise QuantumNumberError("cos_theta", cos_theta, "give one of theta, theta_over_pi, cos_theta")
-        c = parse_cosine(cos_theta, "cos_theta")
-        th = lambda iv: iv.acos(iv.mpf(c.numerator) / c.denominator)  # noqa: E731
+        angles["cos_theta"] = cos_theta
     else:
-        k = _angle("theta", theta, theta_over_pi, zero)
-        th = lambda iv: _radians(k[0], k[1], iv)  # noqa: E731
-    mag = lambda iv: y.theta_part.interval(th(iv), iv) / iv.sqrt(iv.pi)  # noqa: E731
-    if p[0] == "pi":
-        real_text = decided_decimal(_bounds(mag), digits)
-        return _phased_decimal(real_text, y.m * p[1] / 2, mag, digits)
-    re = decided_decimal(_bounds(lambda iv: mag(iv) * iv.cos(y.m * _radians(p[0], p[1], iv))), digits)
-    im = decided_decimal(_bounds(lambda iv: mag(iv) * iv.sin(y.m * _radians(p[0], p[1], iv))), digits)
-    return _complex_text(re, im)
+        angles["theta"] = _angle("theta", theta, theta_over_pi, None)
+    check_digits(digits)
+    from .kinds.angular import function_kind
+
+    return function_kind("Y").at(t, _given(angles), digits).decimal
 
 
+def _given(angles: dict) -> dict:
+    """Parsed angles back to what the records read: 'r*pi' text or exact radians (None dropped)."""
+    out = {}
+    for name, a in angles.items():
+        if a is None:
+            continue
+        if isinstance(a, tuple):
+            out[name] = f"{a[1]}*pi" if a[0] == "pi" else a[1]
+        else:
+            out[name] = a
+    return out
 
+
+def _at(key: str, t: tuple[int, ...], angles: dict, digits: int):
+    """The exact value at these angles, else its decimal text (the records in kinds/angular.py)."""
+    check_digits(digits)
+    from .kinds.angular import function_kind
+
+    ev = function_kind(key).at(t, _given(angles), digits)
+    return ev.exact if ev.exact is not None else ev.decimal

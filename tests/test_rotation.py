@@ -355,3 +355,22 @@ def test_exact_matrix_at_rational_cosine():
             for r, a in enumerate(ms(tj)):
                 for k, b in enumerate(ms(tj)):
                     assert m[r][k] == d2(tj, a, b).at_cos(c)
+
+
+def test_values_at_a_rational_cosine_with_phases_in_radians():
+    """Regressions: a rational cos(beta) or cos(theta) with an azimuth in radians, and a zero at an
+    exact angle, once raised AttributeError / ArithmeticError.  References: sympy's Rotation.D and
+    Ynm (same definitions as here, see their docstrings)."""
+    import sympy
+    from sympy.physics.quantum.spin import Rotation
+
+    from tablegen import spherical_y
+
+    assert rotation_D(1, 0, 0, alpha=0.5, cos_beta=0) == 0  # d^1_00 = cos(beta) (Edmonds 1957, ch. 4)
+    assert spherical_y(1, 0, theta="pi/2") == "0"  # Y_1^0 is proportional to cos(theta)
+    text = rotation_D(2, 1, -1, alpha=F(3, 10), cos_beta=F(1, 3), gamma=F(-1, 5), digits=30)
+    ref = Rotation.D(2, 1, -1, sympy.Rational(3, 10), sympy.acos(sympy.Rational(1, 3)), sympy.Rational(-1, 5)).doit()
+    assert abs(sympy.N(sympy.sympify(text) - ref, 40)) < sympy.Float(10) ** -28
+    text = spherical_y(3, -2, cos_theta=F(-1, 4), phi=F(7, 10), digits=30)
+    ref = sympy.Ynm(3, -2, sympy.acos(sympy.Rational(-1, 4)), sympy.Rational(7, 10)).expand(func=True)
+    assert abs(sympy.N(sympy.sympify(text) - ref, 40)) < sympy.Float(10) ** -28
