@@ -372,7 +372,7 @@ BAD = [
     (["lsjj", "1", "2", "--equivalent"], ["argument L2", "L1"]),
     (["lsjj", "1", "1", "--J", "7"], ["--J", "7"]),
     (["lsjj", "1", "1", "--order", "lx"], ["--order", "lx"]),
-    (["lsjj", "50", "1"], ["l = 50", "--allow-large"]),
+    (["lsjj", "150", "1"], ["l = 150", "--allow-large"]),
 ]
 
 

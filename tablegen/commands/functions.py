@@ -45,6 +45,7 @@ def _parser(fk):
 def run(key: str, tokens: list[str]) -> int:
     """Print one function or value; return the exit status (errors are raised, cli.main reports them)."""
     from ..kinds.angular import FUNCTION_KINDS, function_kind
+    from ..spins import half_text
 
     fk = function_kind(key)
     own = tuple(_option(a) for a in fk.angles) + (f"--cos-{fk.polar}",)
@@ -74,7 +75,7 @@ def run(key: str, tokens: list[str]) -> int:
     record = {
         "kind": key,
         "title": fk.kind.title,
-        "arguments": dict(zip(names, values)),
+        "arguments": dict(zip(names, (half_text(x) for x in t))),
         "symbol": fk.symbol_text(t, shown),
         "function": str(function),
         "function_latex": function.latex(),

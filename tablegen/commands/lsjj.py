@@ -13,8 +13,8 @@ from .recouple import grid
 
 __all__ = ["run", "MAX_L"]
 
-#: Largest orbital l without --allow-large (l1 + l2 + 2 matrices of up to 4 x 2(2l+1) 9j entries).
-MAX_L = 30
+#: Largest orbital l without --allow-large (l1 + l2 + 2 matrices of at most 4 x 4 9j entries; about 1 s here).
+MAX_L = 100
 
 
 def _parser():

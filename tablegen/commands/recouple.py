@@ -240,9 +240,9 @@ def _run_matrix(tree1: str, tree2: str, values: dict[str, str], ns) -> int:
         if name in values:
             parse_j(values[name], name)
     leaves = [parse_j(values[n], n) for n in pair.leaf_names() if n in values]
-    total = values.get(pair.first.name, values.get(pair.second.name))
+    total = next((n for n in (pair.first.name, pair.second.name) if n in values), None)
     if len(leaves) == len(pair.leaf_names()) and total is not None:
-        n = dimension(leaves, parse_j(total, pair.first.name))
+        n = dimension(leaves, parse_j(values[total], total))
         if n * n > MAX_MATRIX_ENTRIES and not ns.allow_large:
             raise TooLargeError("recoupling matrix", f"{n} x {n} = {n * n:,} entries",
                                 f"refused above {MAX_MATRIX_ENTRIES:,} entries (--allow-large to insist)")
