@@ -436,3 +436,23 @@ def _triangle(values, tree_text):
         return abs(a - b) <= c <= a + b and (a + b + c).is_integer and ok(node[1]) and ok(node[2])
 
     return ok(t)
+
+
+def test_a_closed_pipe_is_no_traceback():
+    """`tablegen lsjj 30 30 | head -1`: the reader goes away; no traceback (common practice, no source)."""
+    import os
+    import subprocess
+    import sys
+    from pathlib import Path
+
+    root = Path(__file__).resolve().parent.parent
+    env = dict(os.environ, PYTHONPATH=str(root))
+    proc = subprocess.Popen([sys.executable, "-m", "tablegen", "lsjj", "30", "30"], stdout=subprocess.PIPE,
+                            stderr=subprocess.PIPE, env=env, cwd=str(root))
+    first = proc.stdout.readline()
+    proc.stdout.close()
+    err = proc.stderr.read().decode()
+    proc.wait(timeout=120)
+    assert first.startswith(b"LS <-> jj")
+    assert "Traceback" not in err and "BrokenPipe" not in err, err
+    assert proc.returncode in (0, 141)

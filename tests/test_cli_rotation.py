@@ -336,6 +336,7 @@ def _probe(argv):
     (["value", "d", "5/2", "1/2", "-3/2", "--cos-beta", "1/3", "--json"], "False"),
     (["value", "Y", "3", "-2"], "False"),
     (["value", "D", "1", "1", "0", "--alpha", "pi", "--beta", "pi/2"], "False"),
+    (["value", "D", "1/2", "1/2", "1/2", "--alpha", "pi", "--beta", "pi/3"], "False"),  # a quarter turn: -i * surd
     (["value", "d", "2", "1", "0", "--beta", "0.5"], "True"),
     (["value", "Y", "3", "-2", "--theta", "pi/3"], "True"),
     (["value", "d", "2", "1", "x"], "False"),

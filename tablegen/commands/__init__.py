@@ -34,11 +34,11 @@ def route(argv: list[str]) -> "Callable[[], int] | None":
     if argv[0] == "recouple":
         from . import recouple
 
-        return lambda: recouple.run(argv[1:])
+        return _piped(lambda: recouple.run(argv[1:]))
     if argv[0] == "lsjj":
         from . import lsjj
 
-        return lambda: lsjj.run(argv[1:])
+        return _piped(lambda: lsjj.run(argv[1:]))
     if argv[0] == "value":
         key = _value_kind(argv[1:])
         if key is None:
@@ -52,7 +52,7 @@ def route(argv: list[str]) -> "Callable[[], int] | None":
         if key in FUNCTION_KEYS:
             from . import functions
 
-            return lambda: functions.run(key, argv[1:])
+            return _piped(lambda: functions.run(key, argv[1:]))
     return None
 
 
@@ -69,3 +69,28 @@ def _value_kind(tokens: list[str]) -> "str | None":
         elif not token.startswith("-"):
             return token
     return None
+
+
+#: Exit status when the reader of our output went away (as a shell reports SIGPIPE: 128 + 13).
+EXIT_PIPE_CLOSED = 141
+
+
+def _piped(run: "Callable[[], int]") -> "Callable[[], int]":
+    """Run a command and flush its output; a reader that closed the pipe (| head) ends it
+    quietly instead of with a traceback, now or at interpreter exit."""
+
+    def guarded() -> int:
+        import sys
+
+        try:
+            status = run()
+            sys.stdout.flush()
+            return status
+        except BrokenPipeError:
+            import os
+
+            devnull = os.open(os.devnull, os.O_WRONLY)
+            os.dup2(devnull, sys.stdout.fileno())  # nothing left to flush at exit
+            return EXIT_PIPE_CLOSED
+
+    return guarded

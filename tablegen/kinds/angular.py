@@ -152,14 +152,6 @@ def _angle_zero(f, c: Fraction, name: str) -> ZeroRule:
     return ZeroRule("angle", f"its polynomial in cos({name}) has a root at cos({name}) = {c} (no selection rule)")
 
 
-def _pi_text(r: Fraction) -> str:
-    if r == 0:
-        return "0"
-    n, d = r.numerator, r.denominator
-    head = "pi" if n == 1 else ("-pi" if n == -1 else f"{n}*pi")
-    return head if d == 1 else f"{head}/{d}"
-
-
 # -- combining the parts ---------------------------------------------------------------
 def _combine(real: Surd, phase: Phase, pi_power: int, digits: int) -> Evaluation:
     """real * pi**(pi_power/2) * exp(i phase) for an exact non-zero real part."""
@@ -175,6 +167,9 @@ def _combine(real: Surd, phase: Phase, pi_power: int, digits: int) -> Evaluation
     r = value.real_surd()
     if r is not None:
         return Evaluation(r, r.decimal(digits), None)
+    if (4 * value.turn).denominator == 1:  # +-i times a surd: integers only, no mpmath
+        im = value.modulus.decimal(digits)
+        return Evaluation(value, complex_text("0", im if value.turn == Fraction(1, 4) else _negated(im)), None)
     return Evaluation(value, value.decimal(digits), None)
 
 
