@@ -447,12 +447,12 @@ def test_a_closed_pipe_is_no_traceback():
 
     root = Path(__file__).resolve().parent.parent
     env = dict(os.environ, PYTHONPATH=str(root))
-    proc = subprocess.Popen([sys.executable, "-m", "tablegen", "lsjj", "30", "30"], stdout=subprocess.PIPE,
-                            stderr=subprocess.PIPE, env=env, cwd=str(root))
-    first = proc.stdout.readline()
-    proc.stdout.close()
-    err = proc.stderr.read().decode()
-    proc.wait(timeout=120)
+    with subprocess.Popen([sys.executable, "-m", "tablegen", "lsjj", "30", "30"], stdout=subprocess.PIPE,
+                          stderr=subprocess.PIPE, env=env, cwd=str(root)) as proc:
+        first = proc.stdout.readline()
+        proc.stdout.close()
+        err = proc.stderr.read().decode()
+        proc.wait(timeout=120)
     assert first.startswith(b"LS <-> jj")
     assert "Traceback" not in err and "BrokenPipe" not in err, err
     assert proc.returncode in (0, 141)
