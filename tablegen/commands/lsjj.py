@@ -100,8 +100,10 @@ def _configuration(l1: int, l2: int, equivalent: bool) -> str:
     from ..recoupling.lsjj import ORBITAL_LETTERS
 
     def letter(l: int) -> str:
-        return ORBITAL_LETTERS[l].lower() if l < len(ORBITAL_LETTERS) else f"[l={l}]"
+        return ORBITAL_LETTERS[l].lower()
 
+    if max(l1, l2) >= len(ORBITAL_LETTERS):  # beyond the letters: the numbers say it
+        return f"l{l1}{'^2' if equivalent else f' l{l2}'}"
     if equivalent:
         return f"{letter(l1)}2"
     return letter(l1) + letter(l2) + ("'" if l1 == l2 else "")
