@@ -13,7 +13,7 @@ Nothing registers itself on import: :data:`FAMILIES` is the registry.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Callable
 
@@ -37,7 +37,7 @@ class Companion:
 
     kind: str
     label: str
-    mapping: Callable[[tuple[int, ...]], tuple[tuple[int, ...], int]]
+    mapping: Callable[[tuple[int, ...]], tuple[tuple[int, ...], int]] = field(repr=False)  # no addresses in reprs
 
 
 @dataclass(frozen=True)

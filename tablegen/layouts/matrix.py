@@ -13,7 +13,7 @@ page and anchor follow from its arguments alone (the jump box relies on it).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Callable, Iterable
 
 from ..sitemodel import Entry, Link, Page, Section, Table, chain, file_code, half, table_files
@@ -32,7 +32,7 @@ class MatrixBlock:
     params: tuple[tuple[str, int], ...]
     rows: tuple[int, ...]
     columns: tuple[int, ...]
-    key: Callable[[int, int], "tuple[int, ...] | None"]
+    key: Callable[[int, int], "tuple[int, ...] | None"] = field(repr=False)
 
 
 @dataclass(frozen=True, slots=True)
@@ -42,7 +42,7 @@ class MatrixLayout:
     block: tuple[str, ...]  # kind argument names fixed per matrix ("j1", "j2", "j3", "J")
     row: str  # kind argument labelling the rows ("j12", "mp")
     column: str  # kind argument labelling the columns ("j23", "m")
-    blocks: Callable[[int, int], Iterable[MatrixBlock]]  # (min 2j, max 2j) -> blocks in order
+    blocks: Callable[[int, int], Iterable[MatrixBlock]] = field(repr=False)  # (min 2j, max 2j) -> blocks in order
     count_noun: str = "values"
 
     name = "matrix"
