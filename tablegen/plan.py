@@ -32,29 +32,22 @@ __all__ = [
     "internal_targets",
 ]
 
+#: The fixed pages after the index: (path, title, kind, ids the page carries).
 _TEXT_PAGES = (
-    ("index.html", None, "index"),
-    ("conventions.html", "Conventions", "conventions"),
-    ("methods.html", "How the values are computed and checked", "methods"),
-    ("cite.html", "How to cite this build", "cite"),
+    ("conventions.html", "Conventions", "conventions", ()),
+    ("methods.html", "How the values are computed and checked", "methods", ()),
+    ("cite.html", "How to cite this build", "cite", ("bibtex", "plain", "digest", "recipe")),
 )
-#: ids the fixed pages carry (checked by build's link check like any other anchor)
-_TEXT_ANCHORS = {
-    "index": ("contents", "conventions", "find"),
-    "cite": ("bibtex", "plain", "digest", "recipe"),
-}
 
 
 def plan_site(recipe: Recipe, families: tuple[Family, ...] = FAMILIES) -> SitePlan:
     """Every page and table of the site the recipe asks for, family by family in record order."""
     in_build = [(fam, recipe.family(fam.key)) for fam in families if recipe.family(fam.key) is not None]
     by_key = {fam.key: (fam, f) for fam, f in in_build}
-    pages: list[Page] = []
-    for path, title, kind in _TEXT_PAGES:
-        anchors = _TEXT_ANCHORS.get(kind, ())
-        if kind == "index":  # the index has a section per family of the build
-            anchors += tuple(fam.key for fam, _ in in_build)
-        pages.append(Page(path, title or recipe.title, kind, anchors=anchors))
+    # the index has a section per family of the build, named by its key
+    index_ids = ("contents", "conventions", "find") + tuple(fam.key for fam, _ in in_build)
+    pages = [Page("index.html", recipe.title, "index", anchors=index_ids)]
+    pages += [Page(path, title, kind, anchors=ids) for path, title, kind, ids in _TEXT_PAGES]
     tables: list[Table] = []
     family_pages = []
     for fam, f in in_build:

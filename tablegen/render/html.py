@@ -84,6 +84,7 @@ class _Site:
             next=self.link(page, page.next),
             related=[self.link(page, r) for r in page.related],
             convention=fam.convention if fam else "",
+            layout_name=fam.layout.name if fam else "",
             jump=self.jump,
             **context,
         )

@@ -103,7 +103,7 @@ class _Parser:
         return tok
 
     def expect(self, text: str) -> None:
-        kind, value = self.take()
+        token, value = self.take()
         if value != text:
             raise TexError(f"expected {text!r} but found {value!r} in {self.tex!r}")
 
@@ -113,7 +113,7 @@ class _Parser:
         start = self.starts[self.pos - 1] + 1
         depth = 1
         while True:
-            kind, value = self.take()
+            token, value = self.take()
             if value == "{":
                 depth += 1
             elif value == "}":
@@ -182,15 +182,15 @@ class _Parser:
         )
 
     def atom(self) -> str:
-        kind, value = self.take()
-        if kind == "num":
+        token, value = self.take()
+        if token == "num":
             return f"<mn>{value}</mn>"
         if value in _PAIRS:
             left, closer, right = _PAIRS[value]
             return self.fenced(left, closer, right)
         if value == "|" or value == "\\|":
             return _mo("|")
-        if kind == "esc":
+        if token == "esc":
             ch = value[1]
             if ch in "{}":
                 return _mo(ch)
@@ -199,7 +199,7 @@ class _Parser:
             if ch == "\\":
                 raise TexError(f"row break outside a matrix in {self.tex!r}")
             return f'<mspace width="{_SPACES[ch]}"/>'
-        if kind == "cmd":
+        if token == "cmd":
             return self.command(value[1:])
         if value == "{":
             items = self.sequence(("}",))
@@ -251,12 +251,12 @@ class _Parser:
 
     def delimiter(self) -> str:
         """The delimiter after \\left or \\right ('' for '.')."""
-        kind, value = self.take()
-        if kind == "cmd":
+        token, value = self.take()
+        if token == "cmd":
             if value[1:] not in _OPERATORS:
                 raise TexError(f"unsupported delimiter {value!r} in {self.tex!r}")
             return _OPERATORS[value[1:]]
-        symbol = value[1:] if kind == "esc" else value
+        symbol = value[1:] if token == "esc" else value
         return "" if symbol == "." else symbol
 
     def environment(self, env: str) -> str:
@@ -266,7 +266,7 @@ class _Parser:
         while True:
             cell = self.sequence(("&", "\\\\", "\\end"))
             rows[-1].append(_unrow(_row(cell)))
-            kind, value = self.take()
+            token, value = self.take()
             if value == "&":
                 continue
             if value == "\\\\":

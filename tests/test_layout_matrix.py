@@ -1,0 +1,132 @@
+"""The matrix layout, end to end, with a small family made for this test.
+
+The family shows 6j symbols {j1 j2 j3; j4 j5 j6} as recoupling matrices: for
+fixed (j1, j2, j4, j5), rows j3 and columns j6.  Up to the factors
+(-1)^(...) sqrt((2 j3 + 1)(2 j6 + 1)) this is the matrix that recouples three
+angular momenta, so its columns are orthonormal with the weight (2j3+1)(2j6+1):
+sum_j3 (2j3+1)(2j6+1) {j1 j2 j3; j4 j5 j6} {j1 j2 j3; j4 j5 j6'} = delta(j6, j6')
+(Edmonds 1957, eq. 6.2.9).  It is not in the default recipe; it shows that
+a new family on the matrix layout needs only a record.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import re
+from fractions import Fraction
+
+import pytest
+
+from tablegen.build import render_outputs
+from tablegen.compute import compute_values
+from tablegen.families import Family
+from tablegen.layouts import MatrixBlock, MatrixLayout
+from tablegen.linkcheck import LinkCheck
+from tablegen.plan import plan_site
+from tablegen.recipe import FamilyRange, Recipe
+from tablegen.render.jumpdata import jump_data
+from tablegen.triads import is_triad
+from tablegen.values import ExactSum
+
+
+def _blocks(lo: int, hi: int):
+    """Blocks with (j1, j2, j4, j5) in the range; rows and columns complete (every j3, j6 the triads allow)."""
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j4 in js:
+                for j5 in js:
+                    every = range(0, 2 * hi + 1)
+                    rows = tuple(j3 for j3 in every if is_triad(j1, j2, j3) and is_triad(j4, j5, j3))
+                    cols = tuple(j6 for j6 in every if is_triad(j1, j5, j6) and is_triad(j4, j2, j6))
+                    if rows and cols:
+                        yield MatrixBlock(
+                            (("j1", j1), ("j2", j2), ("j4", j4), ("j5", j5)), rows, cols,
+                            lambda j3, j6, a=(j1, j2, j4, j5): (a[0], a[1], j3, a[2], a[3], j6),
+                        )
+
+
+TOY = Family(
+    key="6jm",
+    kind="6j",
+    title="6j symbols as recoupling matrices",
+    nav_label="6j matrices",
+    layout=MatrixLayout(block=("j1", "j2", "j4", "j5"), row="j3", column="j6", blocks=_blocks),
+    convention="Rows j3, columns j6 of {j1 j2 j3; j4 j5 j6}.",
+)
+
+
+@pytest.fixture(scope="module")
+def built():
+    recipe = Recipe(title="Matrix layout test", families=(FamilyRange("6jm", 0, 3),))
+    plan = plan_site(recipe, families=(TOY,))
+    book = compute_values(plan, jobs=1)
+    meta, outputs = render_outputs(plan, book)
+    return plan, book, dict(outputs)
+
+
+def test_matrices_are_orthonormal(built):
+    # Edmonds 1957, eq. 6.2.9: the recoupling matrix is orthogonal
+    plan, book, _ = built
+    checked = 0
+    for table in plan.tables:
+        for s in table.sections:
+            for a, ca in enumerate(s.columns):
+                for b, cb in enumerate(s.columns):
+                    total = ExactSum()
+                    for r, j3 in enumerate(s.rows):
+                        ea, eb = s.grid[r][a], s.grid[r][b]
+                        total += (j3 + 1) * (ca + 1) * book[("6j", ea.key)].value * book[("6j", eb.key)].value
+                    assert total == (1 if a == b else 0), (s.anchor, ca, cb)
+                    checked += 1
+    assert checked > 100
+
+
+def test_page_has_labelled_rows_and_columns(built):
+    plan, book, files = built
+    table = plan.tables[3]
+    page = files[table.page].decode("utf-8")
+    assert '<th class="corner"><i>j</i><sub>3</sub> ╲ <i>j</i><sub>6</sub></th>' in page
+    for s in table.sections:
+        assert f'<section id="{s.anchor}"' in page
+        for r, anchor in enumerate(s.row_anchors):
+            assert f'<tr id="{anchor}"><th scope="row">' in page
+        for e in s.entries:
+            assert f'<td id="{e.anchor}" data-t="{book[("6j", e.key)].tex}"' in page
+    assert 'data-layout="matrix"' in page
+
+
+def test_latex_and_data_files(built):
+    plan, book, files = built
+    table = plan.tables[0]
+    tex = files[table.tex].decode("utf-8")
+    assert tex.count("\\begin{longtable}") == len(table.sections)
+    assert "j_3 \\backslash j_6" in tex
+    rows = list(csv.reader(io.StringIO(files[table.csv].decode("utf-8"))))
+    assert rows[0] == ["j1", "j2", "j3", "j4", "j5", "j6", "exact", "square", "decimal"]
+    assert len(rows) - 1 == len(table.entries)
+    data = json.loads(files[table.json])
+    assert data["arguments"] == rows[0][:6]
+    for row, e in zip(data["rows"], table.entries):
+        assert [Fraction(x) * 2 for x in row["args"]] == list(e.key)
+        assert row["exact"] == book[("6j", e.key)].exact
+
+
+def test_every_link_resolves_and_the_jump_patterns_match(built):
+    plan, _, files = built
+    check = LinkCheck(plan)
+    for path, data in files.items():
+        check.add(path, data)
+    assert check.finish() > 0
+    fam = jump_data(plan)["families"]["6jm"]
+    assert fam["layout"] == "matrix" and fam["params"] == ["j1", "j2", "j4", "j5"]
+    half = lambda t: str(t // 2) if t % 2 == 0 else f"{t}/2"
+    code = lambda t: str(t // 2) if t % 2 == 0 else f"{t // 2}.5"
+    for table in plan.tables:
+        for e in table.entries:
+            named = dict(zip(("j1", "j2", "j3", "j4", "j5", "j6"), e.key))
+            fill = lambda p, f: re.sub(r"\{([^}]+)\}", lambda m: f(named[m.group(1)]), p)
+            assert fill(fam["page"], code) == table.page
+            assert fill(fam["anchor"], half) == e.anchor
