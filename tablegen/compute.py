@@ -46,12 +46,19 @@ ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
 
 
 def show(value: Surd, digits: int, style: str) -> Shown:
-    """All text forms of one value."""
+    """All text forms of one value.
+
+    A value that is a function (a rotation function d(beta) as a trigonometric
+    polynomial) has no single decimal and no rational square: those forms are
+    left empty, the exact text and the LaTeX are still written.
+    """
+    squared = getattr(value, "squared", None)
+    decimal = getattr(value, "decimal", None)
     return Shown(
         value=value,
         exact=str(value),
-        square=str(value.squared()),
-        decimal=value.decimal(digits),
+        square=str(squared()) if squared else "",
+        decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
     )
 

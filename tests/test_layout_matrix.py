@@ -130,3 +130,41 @@ def test_every_link_resolves_and_the_jump_patterns_match(built):
             fill = lambda p, f: re.sub(r"\{([^}]+)\}", lambda m: f(named[m.group(1)]), p)
             assert fill(fam["page"], code) == table.page
             assert fill(fam["anchor"], half) == e.anchor
+
+
+# -- a family whose values are functions: the rotation matrix d^j(beta), one matrix per j --------
+def _d_blocks(lo: int, hi: int):
+    for tj in range(lo, hi + 1):
+        ms = tuple(range(tj, -tj - 1, -2))  # rows m' and columns m from j down to -j
+        yield MatrixBlock((("j", tj),), ms, ms, lambda tmp, tm, tj=tj: (tj, tmp, tm))
+
+
+def test_a_function_valued_family_renders_as_matrices(monkeypatch):
+    # the rotation kind is not in the registry yet; a test may list it for the duration
+    import tablegen.kinds as kinds
+    import tablegen.render.data as data_module
+    from tablegen.kinds.rotation import ROTATION_D_SMALL
+
+    monkeypatch.setitem(kinds._BY_KEY, "d", ROTATION_D_SMALL)
+    monkeypatch.setattr(data_module, "KIND_KEYS", kinds.KIND_KEYS + ("d",))
+    rot = Family(
+        key="d",
+        kind="d",
+        title="Wigner rotation functions d^j(β)",
+        nav_label="d(β)",
+        layout=MatrixLayout(block=("j",), row="mp", column="m", blocks=_d_blocks),
+        convention="d^j_{m′m}(β) = ⟨j m′| exp(−iβJ_y) |j m⟩, Condon–Shortley phase.",
+    )
+    plan = plan_site(Recipe(title="Rotation test", families=(FamilyRange("d", 0, 2),)), families=(rot,))
+    book = compute_values(plan, jobs=1)
+    files = dict(render_outputs(plan, book)[1])
+    # d^1_{00}(beta) = cos(beta), d^1_{10}(beta) = -sin(beta)/sqrt(2) (Edmonds 1957, table 4.1 — from memory)
+    assert book[("d", (2, 0, 0))].exact == "cos(beta)"
+    assert book[("d", (2, 2, 0))].exact == "-sqrt(1/2)*sin(beta)"
+    assert book[("d", (2, 0, 0))].decimal == ""  # a function has no single decimal
+    page = files["d/j-1.html"].decode("utf-8")
+    assert '<td id="j=1;mp=0,m=0" data-t="\\cos \\beta"' in page
+    assert "<mi>cos</mi>" in page
+    rows = list(csv.reader(io.StringIO(files["data/d-j-1.csv"].decode("utf-8"))))
+    assert rows[0] == ["j", "mp", "m", "exact", "square", "decimal"] and len(rows) == 1 + 9
+    assert "\\cos \\beta" in files["latex/d-j-1.tex"].decode("utf-8")

@@ -72,6 +72,8 @@ _OPERATORS = {
     "lvert": "|", "rvert": "|", "vert": "|", "mid": "|", "sum": "∑", "prod": "∏",
     "lbrace": "{", "rbrace": "}", "lfloor": "⌊", "rfloor": "⌋", "lceil": "⌈", "rceil": "⌉",
 }
+#: Function names written upright, followed by an invisible function application (U+2061).
+_FUNCTIONS = ("sin", "cos", "tan", "exp", "log")
 _SPACES = {",": "0.17em", ":": "0.22em", ";": "0.28em", " ": "0.25em", "quad": "1em", "qquad": "2em"}
 _FENCES = {"pmatrix": ("(", ")"), "Bmatrix": ("{", "}"), "vmatrix": ("|", "|"), "matrix": ("", "")}
 _CHAR_OPERATORS = set("+=()[]|,;<>/!:'")
@@ -241,6 +243,8 @@ class _Parser:
             raise TexError(f"\\right without \\left in {self.tex!r}")
         if name == "begin":
             return self.environment(self.raw_group())
+        if name in _FUNCTIONS:
+            return f"<mi>{name}</mi><mo>\u2061</mo>"
         if name in _SPACES:
             return f'<mspace width="{_SPACES[name]}"/>'
         if name in _IDENTIFIERS:
