@@ -299,3 +299,38 @@ def test_copy_buttons_copy_the_latex(browser, site):
         assert w.problems == []
     finally:
         w.close()
+
+
+@pytest.fixture(scope="module")
+def matrix_site(tmp_path_factory):
+    """A build with the 6j on both the classes layout and the matrix layout (conftest.SIXJ_MATRICES)."""
+    from conftest import SIXJ_MATRICES
+
+    from tablegen.build import render_outputs
+    from tablegen.recipe import FamilyRange, Recipe
+
+    recipe = Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("6jm", 0, 2)))
+    plan = plan_site(recipe, families=(family("6j"), SIXJ_MATRICES))
+    _, outputs = render_outputs(plan, compute_values(plan, jobs=1))
+    root = tmp_path_factory.mktemp("matrix") / "site"
+    for path, data in outputs:
+        (root / path).parent.mkdir(parents=True, exist_ok=True)
+        (root / path).write_bytes(data)
+    return root, plan
+
+
+def test_jump_box_lands_on_a_matrix_cell(browser, matrix_site):
+    root, plan = matrix_site
+    w = Watched(browser, root)
+    try:
+        w.open("index.html")
+        _type(w.page, "6j@6jm", ["1/2", "1", "1/2", "1", "1/2", "1"])  # {1/2 1 1/2; 1 1/2 1}
+        layout = plan.family("6jm").layout
+        block = layout.block_anchor((("j1", 1), ("j2", 2), ("j4", 2), ("j5", 1)))
+        _landed(w.page, layout.page_path("6jm", 1), layout.anchor(block, 1, 2))
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "6j", ["1/2", "1", "1/2", "1", "1/2", "1"])  # the same symbol, on the classes layout
+        _landed(w.page, *_sixj_expected((1, 2, 1, 2, 1, 2)))
+        assert w.problems == []
+    finally:
+        w.close()

@@ -1,6 +1,6 @@
 """The matrix layout, end to end, with a small family made for this test.
 
-The family shows 6j symbols {j1 j2 j3; j4 j5 j6} as recoupling matrices: for
+The family (conftest.SIXJ_MATRICES) shows 6j symbols {j1 j2 j3; j4 j5 j6} as recoupling matrices: for
 fixed (j1, j2, j4, j5), rows j3 and columns j6.  Up to the factors
 (-1)^(...) sqrt((2 j3 + 1)(2 j6 + 1)) this is the matrix that recouples three
 angular momenta, so its columns are orthonormal with the weight (2j3+1)(2j6+1):
@@ -27,35 +27,9 @@ from tablegen.linkcheck import LinkCheck
 from tablegen.plan import plan_site
 from tablegen.recipe import FamilyRange, Recipe
 from tablegen.render.jumpdata import jump_data
-from tablegen.triads import is_triad
 from tablegen.values import ExactSum
 
-
-def _blocks(lo: int, hi: int):
-    """Blocks with (j1, j2, j4, j5) in the range; rows and columns complete (every j3, j6 the triads allow)."""
-    js = range(lo, hi + 1)
-    for j1 in js:
-        for j2 in js:
-            for j4 in js:
-                for j5 in js:
-                    every = range(0, 2 * hi + 1)
-                    rows = tuple(j3 for j3 in every if is_triad(j1, j2, j3) and is_triad(j4, j5, j3))
-                    cols = tuple(j6 for j6 in every if is_triad(j1, j5, j6) and is_triad(j4, j2, j6))
-                    if rows and cols:
-                        yield MatrixBlock(
-                            (("j1", j1), ("j2", j2), ("j4", j4), ("j5", j5)), rows, cols,
-                            lambda j3, j6, a=(j1, j2, j4, j5): (a[0], a[1], j3, a[2], a[3], j6),
-                        )
-
-
-TOY = Family(
-    key="6jm",
-    kind="6j",
-    title="6j symbols as recoupling matrices",
-    nav_label="6j matrices",
-    layout=MatrixLayout(block=("j1", "j2", "j4", "j5"), row="j3", column="j6", blocks=_blocks),
-    convention="Rows j3, columns j6 of {j1 j2 j3; j4 j5 j6}.",
-)
+from conftest import SIXJ_MATRICES as TOY
 
 
 @pytest.fixture(scope="module")
@@ -168,3 +142,12 @@ def test_a_function_valued_family_renders_as_matrices(monkeypatch):
     rows = list(csv.reader(io.StringIO(files["data/d-j-1.csv"].decode("utf-8"))))
     assert rows[0] == ["j", "mp", "m", "exact", "square", "decimal"] and len(rows) == 1 + 9
     assert "\\cos \\beta" in files["latex/d-j-1.tex"].decode("utf-8")
+
+
+def test_two_families_of_one_kind_get_distinct_jump_entries():
+    from tablegen.families import family
+
+    recipe = Recipe(families=(FamilyRange("6j", 0, 1), FamilyRange("6jm", 0, 1)))
+    plan = plan_site(recipe, families=(family("6j"), TOY))
+    ids = [(k["id"], k["family"]) for k in jump_data(plan)["kinds"]]
+    assert ids == [("6j", "6j"), ("w", "6j"), ("6j@6jm", "6jm")]

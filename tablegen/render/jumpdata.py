@@ -80,12 +80,20 @@ def _family(fam: Family, plan: SitePlan) -> dict:
 
 
 def jump_data(plan: SitePlan) -> dict:
-    """Kinds (in select order: each family's kind, then its companions) and families of the build."""
+    """Kinds (in select order: each family's kind, then its companions) and families of the build.
+
+    Each kind entry has an ``id``, its key, or "key@family" when an earlier
+    family already shows that kind (two families may tabulate one kind).
+    """
     kinds = []
     for fam in plan.families:
         kinds.append(_kind(fam.kind_record, fam, None))
         for c in fam.companions:
             kinds.append(_kind(kind(c.kind), fam, c.mapping))
+    seen: set[str] = set()
+    for entry in kinds:
+        entry["id"] = entry["key"] if entry["key"] not in seen else f"{entry['key']}@{entry['family']}"
+        seen.add(entry["key"])
     return {
         "kinds": kinds,
         "families": {fam.key: _family(fam, plan) for fam in plan.families},

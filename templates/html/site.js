@@ -255,7 +255,7 @@
 
   // ------------------------------------------------------------ finding
   var KINDS = {}, KIND_ORDER = [];
-  if (DATA) DATA.kinds.forEach(function (k) { KINDS[k.key] = k; KIND_ORDER.push(k.key); });
+  if (DATA) DATA.kinds.forEach(function (k) { KINDS[k.id] = k; KIND_ORDER.push(k.id); });
 
   function result(kind, text, path, anchor) {
     return { kind: kind, text: text, path: path || null, anchor: anchor || null };
@@ -327,10 +327,13 @@
     return result("ok", text, path, classAnchor(k, canon));
   }
 
-  function resolve(key, t) {
-    var k = KINDS[key], why = selectionRule(k, t);
+  function resolve(id, t) {
+    var k = KINDS[id], why = selectionRule(k, t);
     if (why) return zero(why);
-    var fam = DATA.families[k.family], main = KINDS[fam.kind];
+    var fam = DATA.families[k.family], main = null;
+    KIND_ORDER.forEach(function (other) {  // the family's own kind (not a companion)
+      if (!main && KINDS[other].family === k.family && !KINDS[other].map) main = KINDS[other];
+    });
     var target = t, sign = 1, what = "";
     if (k.map) {  // a companion: the family's own symbol it equals, with the sign
       target = [];
@@ -479,7 +482,8 @@
     // Start with the family of this page; keep the last typed numbers if they fit it.
     var state = recall();
     var kind = doc.body.className;
-    var fam = DATA.families[kind] ? DATA.families[kind].kind : null;
+    var fam = null;
+    KIND_ORDER.forEach(function (id) { if (!fam && KINDS[id].family === kind) fam = id; });
     if (state && KINDS[state.fam] && (!fam || KINDS[state.fam].family === kind)) {
       fam = state.fam;
     }
