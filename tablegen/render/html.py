@@ -19,7 +19,6 @@ from markupsafe import Markup
 
 from ..buildinfo import BuildMeta, bibtex, plain_citation
 from ..compute import Shown, ValueBook
-from ..families import FAMILIES
 from ..sitemodel import Page, SitePlan, Table
 from . import html_layouts
 from .env import html_environment, templates_dir
@@ -141,7 +140,7 @@ def _index_page(site: _Site, page: Page) -> bytes:
         recipe=site.plan.recipe,
         summary=_summary(site),
         browse=_browse(site, page),
-        all_families=FAMILIES,
+        families=site.plan.families,
         booklet=relative_url(page.path, site.plan.booklet),
         data_files=[{"label": f, "href": relative_url(page.path, f)} for f in _DATA_FILES],
     )
