@@ -68,13 +68,14 @@
 
   // The LaTeX of a coupled state |J M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
   // made from the LaTeX of the coefficients in its grid row (each cell's data-t).
+  // The row's id is "<tag>:<third>=<value>,<row>=<value>", as the grid layout writes it.
   function ketLatex(li) {
-    var state = /^ket:J=([^,]+),M=(.+)$/.exec(li.id);
+    var state = /^[^:]+:[^=]+=([^,]+),([^=]+)=(.+)$/.exec(li.id);
     var link = doc.querySelector('a[href="#' + li.id + '"]');
     var row = link.closest("tr");
     var j = row.closest("table").getAttribute("data-j").split(",");
-    var tM = doubled(state[2], "M");
-    var out = "|" + state[1] + "," + state[2] + "\\rangle = ";
+    var tM = doubled(state[3], state[2]);
+    var out = "|" + state[1] + "," + state[3] + "\\rangle = ";
     var first = true;
     var cells = row.querySelectorAll("td[data-t]");
     for (var i = 0; i < cells.length; i++) {
