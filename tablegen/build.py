@@ -1,8 +1,13 @@
 """Build a reference site: plan -> compute -> render -> write -> check, top to bottom.
 
-The one function here reads in the order things happen.  Nothing is written
-before the plan and every value exist; everything is written into a staging
-folder that replaces the output folder only at the very end.
+``build`` reads in the order things happen.  Nothing is written before the
+plan and every value exist; everything is written into a staging folder that
+replaces the output folder only at the very end, after the check that every
+internal link and anchor of every page resolves (linkcheck.py, against the
+plan).  ``render_site`` is the same pipeline without any I/O: plan -> compute
+-> render -> check, returning {path: bytes} (everything but manifest.json and
+SHA256SUMS, which output.py adds) and the manifest's fields, for a rebuild in
+memory.
 """
 
 from __future__ import annotations
@@ -11,16 +16,17 @@ import os
 import time
 from dataclasses import dataclass
 from itertools import chain
-from typing import Callable
+from typing import Callable, Iterator
 
 from . import __version__
 from .buildinfo import BuildMeta
-from .compute import compute_values
+from .compute import ValueBook, compute_values
+from .linkcheck import LinkCheck
 from .output import MANIFEST_FORMAT, Staging, check_target, sha256_hex
 from .plan import SitePlan, plan_site
 from .recipe import Recipe, check_size
 
-__all__ = ["build", "BuildResult", "family_counts"]
+__all__ = ["build", "BuildResult", "family_counts", "render_outputs", "render_site", "manifest_fields"]
 
 
 @dataclass(frozen=True)
@@ -35,11 +41,62 @@ class BuildResult:
 
 
 def family_counts(plan: SitePlan) -> tuple[tuple[str, int], ...]:
-    """Number of tabulated values per family (6j/9j: one per symmetry class)."""
+    """Number of tabulated values per family (classes layouts: one per symmetry class)."""
     counts: dict[str, int] = {}
     for table in plan.tables:
         counts[table.family] = counts.get(table.family, 0) + len(table.entries)
-    return tuple((f.family, counts.get(f.family, 0)) for f in plan.recipe.families)
+    return tuple((f.key, counts.get(f.key, 0)) for f in plan.families)
+
+
+def render_outputs(plan: SitePlan, book: ValueBook) -> tuple[BuildMeta, Iterator[tuple[str, bytes]]]:
+    """The build facts and every (path, bytes) of the site in write order (no manifest, no checksums)."""
+    from .render.data import canonical_values, render_data
+    from .render.html import render_html
+    from .render.latex import render_latex
+
+    values_txt = canonical_values(book)
+    meta = BuildMeta(
+        tool="tablegen",
+        version=__version__,
+        data_digest=sha256_hex(values_txt),
+        recipe_toml=plan.recipe.toml_text(),
+        title=plan.recipe.title,
+        counts=family_counts(plan),
+    )
+    outputs = chain(
+        render_html(plan, book, meta),
+        render_latex(plan, book, meta),
+        render_data(plan, book, meta, values_txt),
+    )
+    return meta, outputs
+
+
+def manifest_fields(plan: SitePlan, meta: BuildMeta) -> dict:
+    """What manifest.json says besides its file count and size (output.py adds those)."""
+    return {
+        "format": MANIFEST_FORMAT,
+        "tool": "tablegen",
+        "version": __version__,
+        "recipe": plan.recipe.as_dict(),
+        "counts": dict(meta.counts),
+        "pages": len(plan.pages),
+        "data_digest": meta.data_digest,
+        "data_digest_of": "values.txt",
+        "checksums": "SHA256SUMS",
+    }
+
+
+def render_site(recipe: Recipe, *, jobs: int | None = 1) -> tuple[dict[str, bytes], dict]:
+    """The whole site in memory, link-checked: ({path: bytes} in write order, manifest fields).  No I/O."""
+    plan = plan_site(recipe)
+    meta, outputs = render_outputs(plan, compute_values(plan, jobs))
+    check = LinkCheck(plan)
+    files: dict[str, bytes] = {}
+    for path, data in outputs:
+        check.add(path, data)
+        files[path] = data
+    check.finish()
+    return files, manifest_fields(plan, meta)
 
 
 def build(
@@ -62,43 +119,18 @@ def build(
 
     book = compute_values(plan, jobs, (lambda d, n: progress("computing", d, n)) if progress else None)
 
-    from .render.data import canonical_values, render_data
-    from .render.html import render_html
-    from .render.latex import render_latex
-
-    values_txt = canonical_values(book)
-    counts = family_counts(plan)
-    meta = BuildMeta(
-        tool="tablegen",
-        version=__version__,
-        data_digest=sha256_hex(values_txt),
-        recipe_toml=recipe.toml_text(),
-        title=recipe.title,
-        counts=counts,
-    )
-    outputs = chain(
-        render_html(plan, book, meta),
-        render_latex(plan, book, meta),
-        render_data(plan, book, meta, values_txt),
-    )
+    meta, outputs = render_outputs(plan, book)
+    check = LinkCheck(plan)
     with Staging(out_dir, discard_extra) as site:
         for n, (path, data) in enumerate(outputs, 1):
             site.write(path, data)
+            check.add(path, data)
             if progress and n % 50 == 0:
                 progress("writing", n, 0)
-        site.finish(
-            {
-                "format": MANIFEST_FORMAT,
-                "tool": "tablegen",
-                "version": __version__,
-                "recipe": recipe.as_dict(),
-                "counts": dict(counts),
-                "pages": len(plan.pages),
-                "data_digest": meta.data_digest,
-                "data_digest_of": "values.txt",
-                "checksums": "SHA256SUMS",
-            }
-        )
+        if progress:
+            progress("checking links", 0, 0)
+        check.finish()  # a broken link stops here, before the swap: the old site stays
+        site.finish(manifest_fields(plan, meta))
         files, size = len(site.sums), sum(site.sizes.values())
     return BuildResult(
         out_dir=str(site.target),

@@ -1,6 +1,8 @@
 """Compute every value a plan needs, with its text forms, on all cores.
 
-The result is a ValueBook: (family, doubled key) -> Shown.  Shown carries the
+The result is a ValueBook: (kind key, doubled key) -> Shown, for each
+table's kind and for the companions its family record names (Racah W beside
+a 6j).  Shown carries the
 exact value and each text form the renderers print (exact text, signed
 square, decimal, LaTeX in the recipe's root style), so that renderers only format.
 Work is split into fixed chunks in plan order and reassembled in that order,
@@ -13,7 +15,7 @@ import os
 from dataclasses import dataclass
 from typing import Callable, Iterator
 
-from .coefficients import DOUBLED
+from .kinds import kind
 from .plan import SitePlan
 from .values import Surd
 
@@ -44,30 +46,38 @@ ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
 
 
 def show(value: Surd, digits: int, style: str) -> Shown:
-    """All text forms of one value."""
+    """All text forms of one value.
+
+    A value that is a function (a rotation function d(beta) as a trigonometric
+    polynomial) has no single decimal and no rational square: those forms are
+    left empty, the exact text and the LaTeX are still written.
+    """
+    squared = getattr(value, "squared", None)
+    decimal = getattr(value, "decimal", None)
     return Shown(
         value=value,
         exact=str(value),
-        square=str(value.squared()),
-        decimal=value.decimal(digits),
+        square=str(squared()) if squared else "",
+        decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
     )
 
 
 def wanted_keys(plan: SitePlan) -> list[tuple[str, tuple[int, ...]]]:
-    """Every (family, key) the site shows, in plan order, without repeats."""
+    """Every (kind, key) the site shows, in plan order, without repeats."""
     out: dict[tuple[str, tuple[int, ...]], None] = {}
     for table in plan.tables:
+        companions = plan.family(table.family).companions
         for entry in table.entries:
-            out[(table.family, entry.key)] = None
-            if entry.w_form is not None:
-                out[("w", entry.w_form[0])] = None
+            out[(table.kind, entry.key)] = None
+            for c in companions:
+                out[(c.kind, c.mapping(entry.key)[0])] = None
     return list(out)
 
 
 def _compute_chunk(args: tuple[list[tuple[str, tuple[int, ...]]], int, str]) -> list[Shown]:
     keys, digits, style = args
-    return [show(DOUBLED[family](*key), digits, style) for family, key in keys]
+    return [show(kind(k).doubled(*key), digits, style) for k, key in keys]
 
 
 def compute_values(

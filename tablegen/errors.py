@@ -62,6 +62,16 @@ class OutputError(TablegenError, OSError):
         super().__init__(f"folder {str(path)!r}: {rule}")
 
 
+class LinkError(TablegenError, RuntimeError):
+    """A built page links to a file or an anchor the site does not have (a defect of tablegen itself)."""
+
+    def __init__(self, page: str, target: str, rule: str) -> None:
+        self.page = page
+        self.target = target
+        self.rule = rule
+        super().__init__(f"page {page!r} links to {target!r}: {rule}")
+
+
 class TreeError(TablegenError, ValueError):
     """A coupling tree (or a pair of trees) that breaks a rule of the notation."""
 

@@ -1,85 +1,46 @@
-"""Families of tables: one record per recipe section (cg, 3j, 6j, 9j), in one explicit list.
+"""Families of tables: one record per recipe section, in one explicit list.
 
-A :class:`Family` says what the site shows for one recipe section: the kinds
-it tabulates (by :mod:`tablegen.kinds` key), companions shown beside a value
-(Racah W beside each 6j, replacing the special-cased ``Entry.w_form``), its
-title, short navigation label, layout, data columns, convention line and the
-folder its pages go to.  Layouts are records too: :class:`GridLayout` (CG, 3j),
-:class:`ClassesLayout` (6j, 9j symmetry classes) and :class:`MatrixLayout`
-(rows and columns labelled by quantum numbers, for later recoupling tables).
+A :class:`Family` says what the site shows for one recipe section: the kind
+of value it tabulates (a :mod:`tablegen.kinds` key), companions shown beside
+each value (Racah W beside each 6j), its title and navigation label, its
+layout record (:mod:`tablegen.layouts`: grid, classes or matrix), and its
+convention line.  Its data columns and the names the jump box needs follow
+from those.  plan.py, compute.py and the renderers loop over these records;
+per-family prose lives in templates/html/prose/<key>.html.
 
-Stage 1 of issue 6: the records exist and are tested against the behaviour
-of today's plan and renderers; plan.py and the renderers do not read them yet.
 Nothing registers itself on import: :data:`FAMILIES` is the registry.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from functools import cached_property
 from typing import Callable
 
-__all__ = [
-    "Companion",
-    "GridLayout",
-    "ClassesLayout",
-    "MatrixLayout",
-    "Family",
-    "FAMILIES",
-    "FAMILY_KEYS",
-    "family",
-    "sixj_to_w",
-]
+from .kinds import Kind, kind
+from .kinds.sixj import w_of_sixj
+from .layouts import ClassesLayout, GridLayout, Layout, MatrixLayout
 
+__all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
+           "ClassesLayout", "MatrixLayout"]
 
-def sixj_to_w(t: tuple[int, ...]) -> tuple[tuple[int, ...], int]:
-    """Doubled 6j {a b e; d c f} -> (doubled W(a b c d; e f), sign) with W = sign * 6j.
-
-    W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f} (Racah 1942; Edmonds 1957, eq. 6.2.6).
-    """
-    a, b, e, d, c, f = t
-    return (a, b, c, d, e, f), -1 if ((a + b + c + d) // 2) & 1 else 1
+#: Columns of every data row after the arguments.
+VALUE_COLUMNS = ("exact", "square", "decimal")
 
 
 @dataclass(frozen=True, slots=True)
 class Companion:
-    """Another kind shown beside each value: its key and key -> (its doubled arguments, sign)."""
+    """Another kind shown beside each value: its key, a label, and key -> (its doubled arguments, sign).
+
+    value(companion at the mapped arguments) = sign * value(the family's value).
+    """
 
     kind: str
-    mapping: Callable[[tuple[int, ...]], tuple[tuple[int, ...], int]]
+    label: str
+    mapping: Callable[[tuple[int, ...]], tuple[tuple[int, ...], int]] = field(repr=False)  # no addresses in reprs
 
 
-@dataclass(frozen=True, slots=True)
-class GridLayout:
-    """A coupling j1 x j2 per page, a section per third j, grid rows by the third projection, columns m1."""
-
-    name = "grid"
-    third: str  # "J" or "j3"
-    row: str  # "M" or "m3"
-    row_tag: str  # prefix of row anchors: "ket" or "row"
-    twin: str  # the family holding the same numbers in the other convention
-
-
-@dataclass(frozen=True, slots=True)
-class ClassesLayout:
-    """Symmetry classes, one page per largest j of the canonical form."""
-
-    name = "classes"
-    class_size: int  # forms a generic class holds (144 for 6j, 72 for 9j)
-
-
-@dataclass(frozen=True, slots=True)
-class MatrixLayout:
-    """Rows and columns labelled by quantum numbers, each cell one value (recoupling tables)."""
-
-    name = "matrix"
-    row_label: str
-    column_label: str
-
-
-Layout = GridLayout | ClassesLayout | MatrixLayout
-
-
-@dataclass(frozen=True, slots=True)
+@dataclass(frozen=True)
 class Family:
     """One recipe section and everything the site needs to show it."""
 
@@ -89,13 +50,41 @@ class Family:
     nav_label: str
     layout: Layout
     convention: str
-    extra_columns: tuple[str, ...] = ()  # data columns after arguments, exact, square, decimal
     companions: tuple[Companion, ...] = ()
+
+    @cached_property
+    def kind_record(self) -> Kind:
+        return kind(self.kind)
 
     @property
     def kinds(self) -> tuple[str, ...]:
         """Every kind of value the family's pages show (the main one first)."""
         return (self.kind,) + tuple(c.kind for c in self.companions)
+
+    @property
+    def data_columns(self) -> tuple[str, ...]:
+        """Header of its CSV files: arguments, value forms, then layout and companion columns."""
+        extra = ("forms",) if self.layout.name == "classes" else ()
+        for c in self.companions:
+            extra += (c.kind, f"{c.kind}_sign")
+        return self.kind_record.arguments + VALUE_COLUMNS + extra
+
+    @property
+    def heading(self) -> str:
+        """Title with the symbol written in argument names: 'Wigner 3j symbols (j1 j2 j3; m1 m2 m3)'."""
+        return f"{self.title} {named_symbol(self.kind_record)}"
+
+
+def named_symbol(k: Kind, values: "tuple[str, ...] | None" = None) -> str:
+    """A symbol written with text in place of numbers (argument names by default): '⟨j1 m1; j2 m2 | J M⟩'."""
+    v = values or k.arguments
+    n = k.notation
+    parts = [" ".join(v[i] for i in g) for g in n.groups]
+    if n.style == "braket":
+        return f"⟨{'; '.join(parts[:-1])} | {parts[-1]}⟩"
+    if n.style == "function":
+        return f"{n.name}({'; '.join(parts)})"
+    return f"{n.brackets[0]}{'; '.join(parts)}{n.brackets[1]}"
 
 
 FAMILIES: tuple[Family, ...] = (
@@ -104,7 +93,10 @@ FAMILIES: tuple[Family, ...] = (
         kind="cg",
         title="Clebsch–Gordan coefficients",
         nav_label="CG",
-        layout=GridLayout(third="J", row="M", row_tag="ket", twin="3j"),
+        layout=GridLayout(
+            third="J", row="M", row_tag="ket", m_sum_sign=1, twin="3j", row_states=True,
+            page_title="⟨{j1} m1; {j2} m2 | J M⟩ — coupling {j1} ⊗ {j2}", page_label="{j1} ⊗ {j2}",
+        ),
         convention="Condon–Shortley phase. ⟨j1 m1; j2 m2 | J M⟩ = (−1)^(j1−j2+M) √(2J+1) (j1 j2 J; m1 m2 −M). "
         "Coupling order j1 ⊗ j2; the reversed order differs by (−1)^(j1+j2−J).",
     ),
@@ -113,7 +105,10 @@ FAMILIES: tuple[Family, ...] = (
         kind="3j",
         title="Wigner 3j symbols",
         nav_label="3j",
-        layout=GridLayout(third="j3", row="m3", row_tag="row", twin="cg"),
+        layout=GridLayout(
+            third="j3", row="m3", row_tag="row", m_sum_sign=-1, twin="cg",
+            page_title="3j symbols ({j1} {j2} j3; m1 m2 m3)", page_label="3j {j1}, {j2}",
+        ),
         convention="Condon–Shortley phase. (j1 j2 j3; m1 m2 m3) = (−1)^(j1−j2−m3) ⟨j1 m1; j2 m2 | j3 −m3⟩ / √(2j3+1).",
     ),
     Family(
@@ -124,8 +119,7 @@ FAMILIES: tuple[Family, ...] = (
         layout=ClassesLayout(class_size=144),
         convention="Condon–Shortley phase. W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f}. "
         "All forms of a class (tetrahedral and Regge symmetries) are equal.",
-        extra_columns=("forms", "w", "w_sign"),
-        companions=(Companion("w", sixj_to_w),),
+        companions=(Companion("w", "Racah W", w_of_sixj),),
     ),
     Family(
         key="9j",
@@ -135,7 +129,6 @@ FAMILIES: tuple[Family, ...] = (
         layout=ClassesLayout(class_size=72),
         convention="Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
-        extra_columns=("forms",),
     ),
 )
 

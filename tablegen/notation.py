@@ -18,16 +18,7 @@ __all__ = ["half_text", "symbol_text"]
 
 
 def symbol_text(kind: str, t: tuple[int, ...]) -> str:
-    """'<1 1; 1 -1 | 0 0>', '(1 1 0; 1 -1 0)', '{a b c; d e f}', 'W(a b c d; e f)', 9j in rows."""
-    h = [half_text(x) for x in t]
-    if kind == "cg":
-        return f"<{h[0]} {h[1]}; {h[2]} {h[3]} | {h[4]} {h[5]}>"
-    if kind == "3j":
-        return f"({h[0]} {h[1]} {h[2]}; {h[3]} {h[4]} {h[5]})"
-    if kind == "6j":
-        return f"{{{h[0]} {h[1]} {h[2]}; {h[3]} {h[4]} {h[5]}}}"
-    if kind == "w":
-        return f"W({h[0]} {h[1]} {h[2]} {h[3]}; {h[4]} {h[5]})"
-    if kind == "9j":
-        return f"{{{h[0]} {h[1]} {h[2]}; {h[3]} {h[4]} {h[5]}; {h[6]} {h[7]} {h[8]}}}"
-    raise ValueError(f"argument kind = {kind!r}: must be one of cg, 3j, 6j, w, 9j")
+    """'<1 1; 1 -1 | 0 0>', '(1 1 0; 1 -1 0)', '{a b c; d e f}', 'W(a b c d; e f)', 9j in rows: the kind's notation."""
+    from .kinds import kind as kind_record
+
+    return kind_record(kind).text(t)

@@ -30,6 +30,7 @@ import sys
 from dataclasses import dataclass, field
 
 from .errors import QuantumNumberError, RecipeError, TooLargeError
+from .families import FAMILY_KEYS
 from .spins import half_text, parse_j
 
 __all__ = [
@@ -43,8 +44,8 @@ __all__ = [
     "check_size",
 ]
 
-#: Families in the order they appear everywhere (pages, data, digest).
-FAMILIES = ("cg", "3j", "6j", "9j")
+#: Families in the order they appear everywhere (pages, data, digest): the Family records' keys.
+FAMILIES = FAMILY_KEYS
 FAMILY_NAMES = {
     "cg": "Clebsch–Gordan coefficients",
     "3j": "Wigner 3j symbols",

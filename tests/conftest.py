@@ -68,3 +68,38 @@ class ExactSum:
         r, c = live[0]
         square = c * c * r
         return Surd(1 if c > 0 else -1, square.numerator, square.denominator)
+
+
+# -- a small family on the matrix layout, for the layout and browser tests -------------------------
+from tablegen.families import Family  # noqa: E402
+from tablegen.layouts import MatrixBlock, MatrixLayout  # noqa: E402
+from tablegen.triads import is_triad  # noqa: E402
+
+
+def _sixj_matrix_blocks(lo: int, hi: int):
+    """Blocks with (j1, j2, j4, j5) in the range; rows and columns complete (every j3, j6 the triads allow)."""
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j4 in js:
+                for j5 in js:
+                    every = range(0, 2 * hi + 1)
+                    rows = tuple(j3 for j3 in every if is_triad(j1, j2, j3) and is_triad(j4, j5, j3))
+                    cols = tuple(j6 for j6 in every if is_triad(j1, j5, j6) and is_triad(j4, j2, j6))
+                    if rows and cols:
+                        yield MatrixBlock(
+                            (("j1", j1), ("j2", j2), ("j4", j4), ("j5", j5)), rows, cols,
+                            lambda j3, j6, a=(j1, j2, j4, j5): (a[0], a[1], j3, a[2], a[3], j6),
+                        )
+
+
+SIXJ_MATRICES = Family(
+    key="6jm",
+    kind="6j",
+    title="6j symbols as recoupling matrices",
+    nav_label="6j matrices",
+    layout=MatrixLayout(block=("j1", "j2", "j4", "j5"), row="j3", column="j6", blocks=_sixj_matrix_blocks),
+    convention="Rows j3, columns j6 of {j1 j2 j3; j4 j5 j6}.",
+)
+
+

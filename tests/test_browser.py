@@ -16,16 +16,8 @@ import pytest
 
 from tablegen.buildinfo import BuildMeta
 from tablegen.compute import compute_values
-from tablegen.plan import (
-    cg_anchor,
-    cg_page_path,
-    ninej_page_path,
-    plan_site,
-    sixj_page_path,
-    symbol_anchor,
-    threej_anchor,
-    threej_page_path,
-)
+from tablegen.families import family
+from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.render.data import render_data
 from tablegen.render.html import render_html
@@ -154,18 +146,27 @@ def _landed(page, path: str, anchor: str) -> None:
     assert page.locator(f'[id="{anchor}"]').count() == 1
 
 
+# page names and anchors as the Python side writes them (the family records' layouts)
+_CG, _3J = family("cg").layout, family("3j").layout
+_ROWS = ((0, 1, 2), (3, 4, 5), (6, 7, 8))
+
+
+def _class_place(key_of_family: str, canon):
+    layout = family(key_of_family).layout
+    return layout.page_path(key_of_family, canon[0]), layout.anchor(canon, _ROWS[: len(canon) // 3])
+
+
 def _sixj_expected(key):
-    canon = sixj_canonical(*key)[0]
-    return sixj_page_path(canon[0]), symbol_anchor(canon, 3)
+    return _class_place("6j", sixj_canonical(*key)[0])
 
 
 CASES = [
     # <1 -1; 1/2 1/2 | 1/2 -1/2>, typed with a decimal and a fraction
     ("index.html", "cg", ["1", "-1", "0.5", "1/2", "1/2", "-0.5"],
-     cg_page_path(2, 1), cg_anchor(1, -1, -2)),
+     _CG.page_path("cg", 2, 1), _CG.anchor(1, -1, -2)),
     # (1/2 1 3/2; -1/2 1 -1/2) from a page in a subfolder, with a typographic minus
     ("3j/0x0.html", "3j", ["1/2", "1", "1.5", "\u22121/2", "1", "-1/2"],
-     threej_page_path(1, 2), threej_anchor(3, -1, -1)),
+     _3J.page_path("3j", 1, 2), _3J.anchor(3, -1, -1)),
 ]
 
 
@@ -180,7 +181,7 @@ def test_jump_box_lands_on_cg_and_3j_cells(tab, start, family, values, path, anc
 def test_jump_box_finds_a_6j_from_a_non_canonical_form(tab):
     key = (1, 1, 2, 1, 1, 0)  # {1/2 1/2 1; 1/2 1/2 0}
     path, anchor = _sixj_expected(key)
-    assert anchor != symbol_anchor(key, 3), "the test needs a non-canonical form"
+    assert anchor != _class_place("6j", key)[1], "the test needs a non-canonical form"
     tab.open("cg/0x0.html")
     _type(tab.page, "6j", ["1/2", "1/2", "1", "1/2", "1/2", "0"])
     _landed(tab.page, path, anchor)
@@ -212,7 +213,7 @@ def test_jump_box_finds_a_9j_from_a_non_canonical_form(tab):
     assert canon != key, "the test needs a non-canonical form"
     tab.open("6j/jmax-1.html")
     _type(tab.page, "9j", ["0.5", "1/2", "1", "1/2", "0.5", "0", "1", "0", "1"])
-    _landed(tab.page, ninej_page_path(canon[0]), symbol_anchor(canon, 3))
+    _landed(tab.page, *_class_place("9j", canon))
     note = tab.page.locator("#jump-note").text_content()
     assert ("\u22121 \u00d7" in note) == (sign < 0)
     assert tab.problems == []
@@ -226,7 +227,8 @@ def test_jump_box_finds_a_9j_from_a_non_canonical_form(tab):
         ("cg", ["2", "0", "1", "0", "1", "0"], "range"),  # j1 beyond this build
         ("3j", ["1", "1", "1", "1", "1", "1"], "do not add up"),
         ("6j", ["1", "1", "1", "1", "1", "3"], "triangle rule"),
-        ("w", ["1", "1", "1/2", "1", "1", "1"], "(c, d, e) do not add up"),
+        # the first failing triad in the order of the W kind's selection rules: (a, b, e), (a, c, f), ...
+        ("w", ["1", "1", "1/2", "1", "1", "1"], "a, c, f do not add up"),
         ("9j", ["1", "1", "1", "1", "1", "1", "1", "1", "1/2"], "integer"),
         ("cg", ["1", "1/2", "1", "0", "1", "0"], "must be an integer"),
         ("cg", ["one", "0", "1", "0", "1", "0"], "not a number"),
@@ -294,6 +296,41 @@ def test_copy_buttons_copy_the_latex(browser, site):
         w.open("cite.html")
         w.page.locator("pre.copy + button.cp").first.click()
         assert w.page.evaluate("navigator.clipboard.readText()").startswith("@misc{tablegen-cdcdcdcd,")
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+@pytest.fixture(scope="module")
+def matrix_site(tmp_path_factory):
+    """A build with the 6j on both the classes layout and the matrix layout (conftest.SIXJ_MATRICES)."""
+    from conftest import SIXJ_MATRICES
+
+    from tablegen.build import render_outputs
+    from tablegen.recipe import FamilyRange, Recipe
+
+    recipe = Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("6jm", 0, 2)))
+    plan = plan_site(recipe, families=(family("6j"), SIXJ_MATRICES))
+    _, outputs = render_outputs(plan, compute_values(plan, jobs=1))
+    root = tmp_path_factory.mktemp("matrix") / "site"
+    for path, data in outputs:
+        (root / path).parent.mkdir(parents=True, exist_ok=True)
+        (root / path).write_bytes(data)
+    return root, plan
+
+
+def test_jump_box_lands_on_a_matrix_cell(browser, matrix_site):
+    root, plan = matrix_site
+    w = Watched(browser, root)
+    try:
+        w.open("index.html")
+        _type(w.page, "6j@6jm", ["1/2", "1", "1/2", "1", "1/2", "1"])  # {1/2 1 1/2; 1 1/2 1}
+        layout = plan.family("6jm").layout
+        block = layout.block_anchor((("j1", 1), ("j2", 2), ("j4", 2), ("j5", 1)))
+        _landed(w.page, layout.page_path("6jm", 1), layout.anchor(block, 1, 2))
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "6j", ["1/2", "1", "1/2", "1", "1/2", "1"])  # the same symbol, on the classes layout
+        _landed(w.page, *_sixj_expected((1, 2, 1, 2, 1, 2)))
         assert w.problems == []
     finally:
         w.close()

@@ -249,9 +249,9 @@ def test_values_txt_one_sorted_line_per_value(data: Data) -> None:
         for row in _csv_rows(data, table)[1:]:
             key = tuple(int(Fraction(x) * 2) for x in row[:n])
             assert present[(table.family, key)] == row[n]
-        for entry in table.entries:
-            if entry.w_form is not None:
-                assert ("w", entry.w_form[0]) in present
+        for c in data.plan.family(table.family).companions:
+            for entry in table.entries:
+                assert (c.kind, c.mapping(entry.key)[0]) in present
 
 
 def test_values_txt_values_agree_with_sympy(data: Data) -> None:

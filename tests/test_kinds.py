@@ -50,12 +50,19 @@ def test_zero_rule_agrees_with_the_value_over_small_ranges():
 
 
 def _pairs(k):
-    """(j position, m position) pairs: each m follows its j in the notation groups (CG) or the columns (3j)."""
-    if k.key == "cg":
-        return ((0, 1), (2, 3), (4, 5))
-    if k.key == "3j":
-        return ((0, 3), (1, 4), (2, 5))
-    return ()
+    """(j position, m position) pairs, as the kind's Selection record states them."""
+    return k.selection.projections
+
+
+def test_selection_records_state_the_projection_pairs_and_sums():
+    # each m belongs to its j: in the CG bracket it follows its j, in the 3j it sits below it;
+    # m1 + m2 = M for CG, m1 + m2 + m3 = 0 for 3j (Edmonds 1957, eqs. 3.6.1, 3.7.3 — from memory)
+    assert kind("cg").selection.projections == ((0, 1), (2, 3), (4, 5))
+    assert kind("cg").selection.m_sum == (0, 1, 0, 1, 0, -1)
+    assert kind("3j").selection.projections == ((0, 3), (1, 4), (2, 5))
+    assert kind("3j").selection.m_sum == (0, 0, 0, 1, 1, 1)
+    for k in KINDS:  # every triad named is one the zero rule checks
+        assert all(len(t) == 3 and max(t) < len(k.arguments) for t in k.selection.triads)
 
 
 def test_parse_names_the_argument_and_counts():

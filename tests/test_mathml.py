@@ -16,8 +16,8 @@ import pytest
 
 from tablegen.coefficients import cg2, ninej2, racah_w2, sixj2, threej2
 from tablegen.compute import show
-from tablegen.plan import ninej_symbols, sixj_symbols
-from tablegen.recipe import FamilyRange
+from tablegen.kinds import kind
+from tablegen.plan import symbols_in_range
 from tablegen.render import mathml
 from tablegen.render.markdown_pages import render_markdown, render_text_page
 from tablegen.spins import half_text
@@ -89,10 +89,10 @@ def _all_values():
                     if abs(tM) <= tJ:
                         yield "cg", (tj1, tm1, tj2, tm2, tJ, tM), cg2(tj1, tm1, tj2, tm2, tJ, tM)
                         yield "3j", (tj1, tj2, tJ, tm1, tm2, -tM), threej2(tj1, tj2, tJ, tm1, tm2, -tM)
-    for key in sixj_symbols(FamilyRange("6j", 0, 5)):
+    for key in symbols_in_range(kind("6j"), 0, 5):
         yield "6j", key, sixj2(*key)
         yield "w", key, racah_w2(*key)
-    for key in ninej_symbols(FamilyRange("9j", 0, 3)):
+    for key in symbols_in_range(kind("9j"), 0, 3):
         yield "9j", key, ninej2(*key)
     for key in [(2, 0, 2, 0, 2, 0), (1, 1, 1, 1, 5, 2), (2, 2, 2, 2, 2, 5)]:
         yield "zero", key, cg2(*key)
@@ -166,27 +166,27 @@ def _qn(t: int) -> str:
 def test_symbol_notation_shows_every_argument_in_order():
     # notation as written in Edmonds 1957 (ch. 3, 6) — from memory
     cg = (3, -1, 2, 2, 5, 1)
-    m = mathml.math(mathml.cg_symbol(cg))
+    m = mathml.math(mathml.symbol(kind("cg").notation, cg))
     assert _mn_texts(m) == [_qn(t) for t in cg]
     assert [o.text for o in _tree(m).iter("mo")] == ["⟨", ";", "|", "⟩"]
 
     three = (2, 1, 3, 0, -1, 1)
-    m = mathml.math(mathml.threej_symbol(three))
+    m = mathml.math(mathml.symbol(kind("3j").notation, three))
     rows = list(_tree(m).iter("mtr"))
     assert [[c.find("mn").text for c in r] for r in rows] == [[_qn(t) for t in three[:3]], [_qn(t) for t in three[3:]]]
     assert [o.text for o in _tree(m).iter("mo")] == ["(", ")"]
 
     six = (4, 2, 2, 3, 3, 3)
-    m = mathml.math(mathml.sixj_symbol(six))
+    m = mathml.math(mathml.symbol(kind("6j").notation, six))
     assert len(list(_tree(m).iter("mtr"))) == 2 and _mn_texts(m) == [_qn(t) for t in six]
     assert [o.text for o in _tree(m).iter("mo")] == ["{", "}"]
 
     nine = (2, 2, 2, 2, 2, 2, 2, 2, 0)
-    m = mathml.math(mathml.ninej_symbol(nine))
+    m = mathml.math(mathml.symbol(kind("9j").notation, nine))
     assert len(list(_tree(m).iter("mtr"))) == 3 and _mn_texts(m) == [_qn(t) for t in nine]
 
     w = (1, 1, 1, 1, 2, 0)
-    m = mathml.math(mathml.w_symbol(w))
+    m = mathml.math(mathml.symbol(kind("w").notation, w))
     assert _mn_texts(m) == [_qn(t) for t in w]
     assert _tree(m).find(".//mi").text == "W"
 

@@ -23,3 +23,12 @@ def test_every_subpackage_is_listed_in_pyproject():
     missing = sorted(on_disk - listed)
     assert not missing, f"pyproject.toml [tool.setuptools] packages lacks {missing}"
     assert "tablegen.templates" in listed
+
+
+def test_every_template_is_covered_by_the_package_data_patterns():
+    # setuptools ships a data file only if one of the glob patterns matches it
+    patterns = tomllib.loads((ROOT / "pyproject.toml").read_text())["tool"]["setuptools"]["package-data"]["tablegen.templates"]
+    files = [p.relative_to(ROOT / "templates") for p in (ROOT / "templates").rglob("*") if p.is_file()]
+    assert files
+    uncovered = [str(f) for f in files if not any(f.match(pat) and len(f.parts) == len(Path(pat).parts) for pat in patterns)]
+    assert not uncovered, f"pyproject.toml package-data misses {uncovered}"

@@ -14,7 +14,8 @@ import pytest
 
 from tablegen import cli
 from tablegen.errors import RecipeError, TooLargeError
-from tablegen.plan import plan_site, sixj_symbols
+from tablegen.kinds import kind
+from tablegen.plan import plan_site, symbols_in_range
 from tablegen.recipe import (
     DEFAULT_RECIPE,
     VALUE_LIMIT,
@@ -361,7 +362,7 @@ def test_huge_recipe_is_refused_before_any_computing(tmp_path: Path, capsys, mon
 
 
 def test_sixj_symbol_enumeration_matches_triangle_rule() -> None:
-    # plan.sixj_symbols is what the 6j estimate and pages rest on; count independently
+    # symbols_in_range is what the 6j pages rest on; count independently
     # (four triads (j1 j2 j3), (j1 j5 j6), (j4 j2 j6), (j4 j5 j3): Edmonds 1957, §6.2)
     f = FamilyRange("6j", 0, 3)
     js = range(0, 4)
@@ -370,7 +371,7 @@ def test_sixj_symbol_enumeration_matches_triangle_rule() -> None:
         for a in js for b in js for c in js for d in js for e in js for g in js
         if _triangle(a, b, c) and _triangle(a, e, g) and _triangle(d, b, g) and _triangle(d, e, c)
     }
-    got = list(sixj_symbols(f))
+    got = list(symbols_in_range(kind("6j"), f.min_tj, f.max_tj))
     assert len(got) == len(set(got))
     assert set(got) == expected
 

@@ -16,10 +16,11 @@ import pytest
 
 from tablegen.buildinfo import BuildMeta
 from tablegen.compute import compute_values
-from tablegen.plan import plan_site, symbol_anchor
+from tablegen.layouts import ClassesLayout
+from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.render.data import render_data
-from tablegen.render.html import ASSETS, relative_url, render_html
+from tablegen.render.html import asset_paths, relative_url, render_html
 from tablegen.symmetry import ninej_canonical, sixj_canonical
 
 HOSTILE_TITLE = "Tables <script>alert('t')</script> & more"
@@ -63,7 +64,7 @@ class _Page(HTMLParser):
             self.math_in[current] = self.math_in.get(current, 0) + 1
         if tag == "a" and current is not None and "href" in a:
             self.cell_links.setdefault(current, []).append(a["href"])
-        if tag == "script" and "src" not in a:
+        if tag == "script" and "src" not in a and a.get("type") != "application/json":  # data blocks never run
             self.scripts_inline += 1
         if tag in ("td", "tr", "li"):
             self._stack.append(a.get("id", current))
@@ -103,7 +104,7 @@ def parsed(built):
 
 def test_every_planned_page_and_the_assets_are_written(built):
     _, plan, _, _, files = built
-    assert sorted(files) == sorted([p.path for p in plan.pages] + list(ASSETS))
+    assert sorted(files) == sorted([p.path for p in plan.pages] + list(asset_paths()))
     assert all(isinstance(v, bytes) and v for v in files.values())
 
 
@@ -257,31 +258,47 @@ def test_symbol_pages_list_every_form_and_the_racah_w(built):
                 assert f"<li>{shown_form}" in row, (entry.anchor, shown_form)
             if any(s < 0 for _, s in entry.members):
                 assert "Equal to minus the value" in row
-            if table.family == "6j":
-                w_args, w_sign = entry.w_form
-                assert f'data-t="{book[("w", w_args)].tex}"' in row
+            for c in plan.family(table.family).companions:
+                w_args, w_sign = c.mapping(entry.key)
+                assert f'data-t="{book[(c.kind, w_args)].tex}"' in row
                 assert ("= −1 × the 6j" in row) == (w_sign < 0)
 
 
-def test_site_js_carries_this_builds_ranges(built):
+def test_every_page_carries_the_jump_data_from_the_records(built):
     recipe, plan, _, _, files = built
-    js = files["assets/site.js"].decode("utf-8")
-    m = re.search(r"var BUILD = (\{.*?\});\n", js)
-    assert m, "site.js lacks the build facts"
-    facts = json.loads(m.group(1))
-    assert facts["families"] == {f.family: [f.min_tj, f.max_tj] for f in recipe.families}
-    assert facts["pages"]["6j"] == list(dict(plan.family_pages)["6j"])
+    blocks = set()
+    for page in plan.pages:
+        text = files[page.path].decode("utf-8")
+        m = re.search(r'<script type="application/json" id="tablegen-data">(.*?)</script>', text)
+        assert m, f"{page.path} lacks the jump data"
+        blocks.add(m.group(1))
+    assert len(blocks) == 1  # the same facts on every page
+    facts = json.loads(blocks.pop())
+    assert {k: v["range"] for k, v in facts["families"].items()} == {f.family: [f.min_tj, f.max_tj] for f in recipe.families}
+    assert facts["families"]["6j"]["pages"] == list(dict(plan.family_pages)["6j"])
+    assert [k["key"] for k in facts["kinds"]] == ["cg", "3j", "6j", "w", "9j"]
+    # the patterns the script fills in give the plan's own names
+    cg = facts["families"]["cg"]
+    table = plan.tables_of("cg")[1]
+    entry = table.entries[0]
+    named = dict(zip(facts["kinds"][0]["names"], entry.key))
+    fill = lambda pattern, fmt: re.sub(r"\{([^}]+)\}", lambda m: fmt(named[m.group(1)]), pattern)
+    code = lambda t: str(t // 2) if t % 2 == 0 else f"{t // 2}.5"
+    assert fill(cg["page"], code) == table.page
+    assert fill(cg["anchor"], _h) == entry.anchor
+    assert "BUILD" not in files["assets/site.js"].decode("utf-8")  # the script is the same file for every build
 
 
 def test_canonical_forms_reachable_by_name(built):
     # the jump box lands on symbol_anchor(canonical); every class row must carry exactly that id
     _, plan, _, _, _ = built
+    rows = ((0, 1, 2), (3, 4, 5), (6, 7, 8))
     for table in plan.tables_of("6j"):
         for entry in table.entries:
-            assert entry.anchor == symbol_anchor(sixj_canonical(*entry.key)[0], 3)
+            assert entry.anchor == ClassesLayout.anchor(sixj_canonical(*entry.key)[0], rows[:2])
     for table in plan.tables_of("9j"):
         for entry in table.entries:
-            assert entry.anchor == symbol_anchor(ninej_canonical(*entry.key)[0], 3)
+            assert entry.anchor == ClassesLayout.anchor(ninej_canonical(*entry.key)[0], rows)
 
 
 def test_every_page_states_its_conventions_and_links_to_them(built):
@@ -351,7 +368,7 @@ def test_other_recipes_render_with_working_links(mapping):
     book = compute_values(plan, jobs=1)
     meta = _meta(recipe, plan)
     files = dict(render_html(plan, book, meta))
-    assert sorted(files) == sorted([p.path for p in plan.pages] + list(ASSETS))
+    assert sorted(files) == sorted([p.path for p in plan.pages] + list(asset_paths()))
     parsed = {path: _parse(data) for path, data in files.items() if path.endswith(".html")}
     known = _known_files(plan, book, meta, files)
     for path, page in parsed.items():

@@ -18,7 +18,7 @@ from typing import Callable, Sequence
 
 from ..values import Surd
 
-__all__ = ["Kind", "Notation", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
+__all__ = ["Kind", "Notation", "Selection", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
 
 
 @dataclass(frozen=True, slots=True)
@@ -54,6 +54,21 @@ class Notation:
 
 
 @dataclass(frozen=True, slots=True)
+class Selection:
+    """The selection rules of a kind as data (argument positions), for planners and the jump box.
+
+    triads: positions of each triple that must obey the triad rule.
+    projections: (j position, m position) pairs; each m runs over -j..j in integer steps.
+    m_sum: a coefficient per argument; sum(c * t) must be 0 (empty: no projection sum).
+    The kind's ``zero_rule`` applies the same data and adds the rules data cannot say.
+    """
+
+    triads: tuple[tuple[int, int, int], ...] = ()
+    projections: tuple[tuple[int, int], ...] = ()
+    m_sum: tuple[int, ...] = ()
+
+
+@dataclass(frozen=True, slots=True)
 class Kind:
     """One kind of value.
 
@@ -68,6 +83,7 @@ class Kind:
     members(*t): the symmetry class of an allowed symbol as [(arguments, sign)] with
         value(member) = sign * value(t), canonical (largest) form first; None if the
         kind has no tabulated symmetry class.
+    selection: the selection rules as argument positions (see Selection).
     """
 
     key: str
@@ -79,6 +95,7 @@ class Kind:
     zero_rule: Callable[[tuple[int, ...]], "ZeroRule | None"]
     notation: Notation
     members: "Callable[..., list[tuple[tuple[int, ...], int]]] | None" = None
+    selection: Selection = Selection()
 
     def text(self, t: Sequence[int]) -> str:
         """The symbol in plain text: '<1 1; 1 -1 | 0 0>', '{1 1 1; 1 1 1}', 'W(a b c d; e f)'."""

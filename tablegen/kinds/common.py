@@ -8,9 +8,9 @@ from ..spins import parse_j
 from ..triads import triad_failure
 from . import ZeroRule
 
-__all__ = ["check_count", "parse_js", "triad_zero", "projection_zero", "first_triad_zero"]
+__all__ = ["TRIAD_TEXT", "check_count", "parse_js", "triad_zero", "projection_zero", "first_triad_zero"]
 
-_TRIAD_TEXT = {"triad-sum": "do not add up to an integer", "triangle": "violate the triangle rule"}
+TRIAD_TEXT = {"triad-sum": "do not add up to an integer", "triangle": "violate the triangle rule"}
 
 
 def check_count(key: str, names: Sequence[str], values: Sequence[object]) -> None:
@@ -28,7 +28,7 @@ def parse_js(key: str, names: Sequence[str], values: Sequence[object], max_j: "i
 def triad_zero(ta: int, tb: int, tc: int, names: str) -> "ZeroRule | None":
     """The ZeroRule of a triad that cannot couple, or None if it can."""
     rid = triad_failure(ta, tb, tc)
-    return None if rid is None else ZeroRule(rid, f"{names} {_TRIAD_TEXT[rid]}")
+    return None if rid is None else ZeroRule(rid, f"{names} {TRIAD_TEXT[rid]}")
 
 
 def first_triad_zero(t: Sequence[int], names: Sequence[str], triads: Sequence[tuple[int, int, int]]) -> "ZeroRule | None":

@@ -15,7 +15,7 @@ from ..intmath import factorial
 from ..symmetry import ninej_members
 from ..triads import is_triad
 from ..values import Surd
-from . import Kind, Notation, ZeroRule
+from . import Kind, Notation, Selection, ZeroRule
 from .common import first_triad_zero, parse_js
 from .sixj import sixj_invariants, sixj_racah_sum
 from .threej import CACHE_ENTRIES, CACHE_MAX_J
@@ -144,4 +144,5 @@ NINEJ = Kind(
     zero_rule=_ninej_rule,
     notation=Notation("array", ((0, 1, 2), (3, 4, 5), (6, 7, 8)), "{}"),
     members=ninej_members,
+    selection=Selection(triads=_TRIADS),
 )

@@ -18,7 +18,7 @@ from ..intmath import factorials_upto, reduce_square
 from ..symmetry import sixj_members
 from ..triads import sixj_sums
 from ..values import Surd
-from . import Kind, Notation, ZeroRule
+from . import Kind, Notation, Selection, ZeroRule
 from .common import first_triad_zero, parse_js
 from .threej import CACHE_ENTRIES, CACHE_MAX_J
 
@@ -180,6 +180,7 @@ SIXJ = Kind(
     zero_rule=_sixj_rule,
     notation=Notation("array", ((0, 1, 2), (3, 4, 5)), "{}"),
     members=sixj_members,
+    selection=Selection(triads=_SIXJ_TRIADS),
 )
 RACAH_W = Kind(
     key="w",
@@ -190,4 +191,5 @@ RACAH_W = Kind(
     doubled=racah_w2,
     zero_rule=_w_rule,
     notation=Notation("function", ((0, 1, 2, 3), (4, 5)), name="W"),
+    selection=Selection(triads=_W_TRIADS),
 )

@@ -22,7 +22,7 @@ from ..intmath import factorials_upto, reduce_square
 from ..symmetry import threej_members
 from ..triads import is_triad
 from ..values import Surd
-from . import Kind, Notation, ZeroRule
+from . import Kind, Notation, Selection, ZeroRule
 from ..spins import parse_j, parse_m
 from .common import check_count, first_triad_zero, projection_zero
 
@@ -151,12 +151,14 @@ def cg2(tj1: int, tm1: int, tj2: int, tm2: int, tJ: int, tM: int) -> Surd:
 # -- zero rules ------------------------------------------------------------------
 _THREEJ_NAMES = ("j1", "j2", "j3", "m1", "m2", "m3")
 _CG_NAMES = ("j1", "m1", "j2", "m2", "J", "M")
+_THREEJ_RULES = Selection(triads=((0, 1, 2),), projections=((0, 3), (1, 4), (2, 5)), m_sum=(0, 0, 0, 1, 1, 1))
+_CG_RULES = Selection(triads=((0, 2, 4),), projections=((0, 1), (2, 3), (4, 5)), m_sum=(0, 1, 0, 1, 0, -1))
 
 
 def _threej_rule(t: tuple[int, ...]) -> "ZeroRule | None":
     """The rule that makes a 3j zero, checked in reading order (the cancellation last)."""
     tj1, tj2, tj3, tm1, tm2, tm3 = t
-    rule = first_triad_zero(t, _THREEJ_NAMES, ((0, 1, 2),)) or projection_zero(
+    rule = first_triad_zero(t, _THREEJ_NAMES, _THREEJ_RULES.triads) or projection_zero(
         ((tj1, tm1, "m1"), (tj2, tm2, "m2"), (tj3, tm3, "m3")), tm1 + tm2 + tm3, "m1 + m2 + m3 != 0"
     )
     odd = (tj1 + tj2 + tj3) & 2
@@ -171,7 +173,7 @@ def _threej_rule(t: tuple[int, ...]) -> "ZeroRule | None":
 
 def _cg_rule(t: tuple[int, ...]) -> "ZeroRule | None":
     tj1, tm1, tj2, tm2, tJ, tM = t
-    rule = first_triad_zero(t, _CG_NAMES, ((0, 2, 4),)) or projection_zero(
+    rule = first_triad_zero(t, _CG_NAMES, _CG_RULES.triads) or projection_zero(
         ((tj1, tm1, "m1"), (tj2, tm2, "m2"), (tJ, tM, "M")), tm1 + tm2 - tM, "m1 + m2 != M"
     )
     return rule or _threej_rule((tj1, tj2, tJ, tm1, tm2, -tM))
@@ -217,6 +219,7 @@ CG = Kind(
     doubled=cg2,
     zero_rule=_cg_rule,
     notation=Notation("braket", ((0, 1), (2, 3), (4, 5))),
+    selection=_CG_RULES,
 )
 THREEJ = Kind(
     key="3j",
@@ -228,4 +231,5 @@ THREEJ = Kind(
     zero_rule=_threej_rule,
     notation=Notation("array", ((0, 1, 2), (3, 4, 5)), "()"),
     members=threej_members,
+    selection=_THREEJ_RULES,
 )

@@ -15,8 +15,8 @@ import json
 from typing import Iterator
 
 from ..buildinfo import BuildMeta, bibtex
-from ..coefficients import ARGUMENT_NAMES
 from ..compute import ValueBook
+from ..families import Family
 from ..kinds import KIND_KEYS
 from ..plan import SitePlan, Table
 from ..spins import half_text
@@ -42,33 +42,28 @@ def canonical_values(book: ValueBook) -> bytes:
     return (VALUES_HEADER + "".join(lines)).encode("utf-8")
 
 
-def _columns(family: str) -> list[str]:
-    extra = {"6j": ["forms", "w", "w_sign"], "9j": ["forms"]}.get(family, [])
-    return list(ARGUMENT_NAMES[family]) + ["exact", "square", "decimal"] + extra
-
-
-def _rows(table: Table, book: ValueBook) -> Iterator[list[str]]:
+def _rows(table: Table, fam: Family, book: ValueBook) -> Iterator[list[str]]:
+    """CSV rows in the order of ``fam.data_columns``."""
     for entry in table.entries:
-        shown = book[(table.family, entry.key)]
+        shown = book[(table.kind, entry.key)]
         row = [half_text(x) for x in entry.key] + [shown.exact, shown.square, shown.decimal]
-        if table.family == "6j":
-            w_args, w_sign = entry.w_form
-            row += [str(entry.forms), " ".join(half_text(x) for x in w_args), str(w_sign)]
-        elif table.family == "9j":
+        if entry.forms:
             row.append(str(entry.forms))
+        for c in fam.companions:
+            args, sign = c.mapping(entry.key)
+            row += [" ".join(half_text(x) for x in args), str(sign)]
         yield row
 
 
-def _csv(table: Table, book: ValueBook) -> bytes:
+def _csv(table: Table, fam: Family, book: ValueBook) -> bytes:
     buf = io.StringIO()
     writer = csv.writer(buf, lineterminator="\n")
-    writer.writerow(_columns(table.family))
-    writer.writerows(_rows(table, book))
+    writer.writerow(fam.data_columns)
+    writer.writerows(_rows(table, fam, book))
     return buf.getvalue().encode("utf-8")
 
 
-def _json(table: Table, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
-    names = ARGUMENT_NAMES[table.family]
+def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
     head = {
         "format": TABLE_FORMAT,
         "tool": f"{meta.tool} {meta.version}",
@@ -77,12 +72,12 @@ def _json(table: Table, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
         "title": table.title,
         "convention": "Condon-Shortley",
         "digits": digits,
-        "arguments": list(names),
+        "arguments": list(fam.kind_record.arguments),
         "data_digest": meta.data_digest,
     }
     rows = []
     for entry in table.entries:
-        shown = book[(table.family, entry.key)]
+        shown = book[(table.kind, entry.key)]
         row = {
             "args": [half_text(x) for x in entry.key],
             "exact": shown.exact,
@@ -91,19 +86,21 @@ def _json(table: Table, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
         }
         if entry.forms:
             row["forms"] = [[" ".join(half_text(x) for x in m), s] for m, s in entry.members]
-        if entry.w_form is not None:
-            row["w"] = {"args": [half_text(x) for x in entry.w_form[0]], "sign": entry.w_form[1]}
+        for c in fam.companions:
+            args, sign = c.mapping(entry.key)
+            row[c.kind] = {"args": [half_text(x) for x in args], "sign": sign}
         rows.append(json.dumps(row, ensure_ascii=False, separators=(",", ":")))
-    text = json.dumps(head, ensure_ascii=False, indent=1)[:-2]  # reopen the object
-    text += ',\n "rows": [\n  ' + ",\n  ".join(rows) + "\n ]\n}\n"
-    return text.encode("utf-8")
+    body = json.dumps(head, ensure_ascii=False, indent=1)[:-2]  # reopen the object: one row per line below
+    body += ',\n "rows": [\n  ' + ",\n  ".join(rows) + "\n ]\n}\n"
+    return body.encode("utf-8")
 
 
 def render_data(plan: SitePlan, book: ValueBook, meta: BuildMeta, values_txt: bytes) -> Iterator[tuple[str, bytes]]:
     """Every data file of the build (tables, values.txt, recipe.toml, cite.bib)."""
     for table in plan.tables:
-        yield table.csv, _csv(table, book)
-        yield table.json, _json(table, book, meta, plan.recipe.digits)
+        fam = plan.family(table.family)
+        yield table.csv, _csv(table, fam, book)
+        yield table.json, _json(table, fam, book, meta, plan.recipe.digits)
     yield "values.txt", values_txt
     yield "recipe.toml", meta.recipe_toml.encode("utf-8")
     yield "cite.bib", bibtex(meta).encode("utf-8")

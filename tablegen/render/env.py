@@ -12,16 +12,37 @@ from __future__ import annotations
 from functools import lru_cache
 from pathlib import Path
 
+import re
+
 import jinja2
+from markupsafe import Markup, escape
 
 from ..latex_escape import tex_escape
 from ..notation import half_text
 
 __all__ = ["templates_dir", "html_environment", "latex_environment", "tex_escape"]
 
+_NAME = re.compile(r"([A-Za-z]+)(\d*)(.*)")
+
+
+def qn_html(name: str) -> Markup:
+    """A quantum-number name in HTML: 'm1' -> <i>m</i><sub>1</sub>, 'M' -> <i>M</i>."""
+    letters, digits, rest = _NAME.fullmatch(name).groups()
+    sub = Markup("<sub>{}</sub>").format(digits) if digits else ""
+    return Markup("<i>{}</i>{}{}").format(letters, sub, escape(rest))
+
+
+def qn_tex(name: str) -> str:
+    """A quantum-number name in LaTeX math: 'm1' -> m_1, 'j12' -> j_{12}, 'M' -> M."""
+    letters, digits, rest = _NAME.fullmatch(name).groups()
+    sub = "" if not digits else f"_{digits}" if len(digits) == 1 else f"_{{{digits}}}"
+    return f"{letters}{sub}{rest}"
+
+
 FILTERS = {
     "half": half_text,  # doubled int -> '3/2'
     "tex": tex_escape,
+    "qn_tex": qn_tex,
 }
 
 
@@ -45,6 +66,7 @@ def html_environment() -> jinja2.Environment:
         keep_trailing_newline=True,
     )
     env.filters.update(FILTERS)
+    env.filters["qn_html"] = qn_html
     return env
 
 

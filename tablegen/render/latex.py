@@ -18,22 +18,16 @@ from typing import Callable, Iterator
 
 from ..buildinfo import BuildMeta, bibtex, plain_citation
 from ..compute import Shown, ValueBook
-from ..plan import Entry, SitePlan, Table
-from .env import latex_environment, tex_escape
+from ..families import Family
+from ..kinds import Notation, kind
+from ..sitemodel import Entry, Section, SitePlan, Table
+from .env import latex_environment, qn_tex, tex_escape
+from ..spins import half_text
 
-__all__ = ["render_latex", "DOCUMENT_PACKAGES", "FRAGMENT_PACKAGES", "tex_text", "tt_text", "pdf_text"]
+__all__ = ["render_latex", "FRAGMENT_PACKAGES", "tex_text", "tt_text", "pdf_text", "latex_symbol"]
 
-#: What sheets and the booklet load (all from TeX's base and recommended sets).
-DOCUMENT_PACKAGES = ("amsmath", "array", "booktabs", "longtable", "geometry", "hyperref")
-#: What a fragment needs in the manuscript's preamble.
+#: What a fragment needs in the manuscript's preamble (named in its head comment).
 FRAGMENT_PACKAGES = ("amsmath", "array", "booktabs", "longtable")
-
-FRAGMENT_TEMPLATES = {
-    "cg": "fragment_cg.tex",
-    "3j": "fragment_3j.tex",
-    "6j": "fragment_6j.tex",
-    "9j": "fragment_9j.tex",
-}
 
 # Characters beyond ASCII that pdflatex prints with its default (OT1) fonts and
 # UTF-8 input, without font substitutions; anything else in user text is
@@ -106,16 +100,86 @@ def _fragment_name(table: Table, document: str) -> str:
     return posixpath.relpath(table.tex, posixpath.dirname(document))
 
 
-def _lookup(book: ValueBook, family: str) -> Callable[[Entry], Shown]:
+def _lookup(book: ValueBook, kind_key: str) -> Callable[[Entry], Shown]:
     def value(entry: Entry) -> Shown:
-        return book[(family, entry.key)]
+        return book[(kind_key, entry.key)]
 
     return value
+
+
+def latex_symbol(notation: Notation, parts: list[str]) -> str:
+    """A symbol in LaTeX from its Notation record, each argument already written as LaTeX."""
+    groups = [[parts[i] for i in g] for g in notation.groups]
+    if notation.style == "array":
+        env = "pmatrix" if notation.brackets == "()" else "Bmatrix"
+        return f"\\begin{{{env}}}" + "\\\\ ".join(" & ".join(g) for g in groups) + f"\\end{{{env}}}"
+    if notation.style == "braket":
+        inner = ";\\,".join("\\,".join(g) for g in groups[:-1])
+        last = "\\,".join(groups[-1])
+        return f"\\langle {inner}\\vert {last}\\rangle"
+    return f"{notation.name}(" + ";\\ ".join("\\ ".join(g) for g in groups) + ")"
+
+
+def _param_words(name: str, layout) -> tuple[str, str]:
+    """(words before the symbol, the symbol) of a table parameter: ('largest', 'j') or ('', 'j1')."""
+    words = getattr(layout, "param_words", {}).get(name, name).rsplit(" ", 1)
+    return (words[0] + " ", words[1]) if len(words) == 2 else ("", words[0])
+
+
+class _Helpers:
+    """Names, parameters and symbols for the templates, from the plan's family records."""
+
+    def __init__(self, plan: SitePlan) -> None:
+        self.plan = plan
+
+    def family_name(self, fam: Family) -> str:
+        """The title in LaTeX; an en dash as the command, which every TeX font setup prints."""
+        return tex_text(fam.title).replace("–", "\\textendash{}")
+
+    @staticmethod
+    def plain_family_name(fam: Family) -> str:
+        return fam.title.replace("–", "-")
+
+    def _params(self, params, layout, tex: bool) -> str:
+        out = []
+        for name, value in params:
+            before, symbol = _param_words(name, layout)
+            if tex:
+                out.append(f"{before}${qn_tex(symbol)} = {half_text(value)}$")
+            else:
+                out.append(f"{before}{symbol} = {half_text(value)}")
+        return ", ".join(out)
+
+    def params(self, table: Table) -> str:
+        return self._params(table.params, self.plan.family(table.family).layout, True)
+
+    def plain_params(self, table: Table) -> str:
+        return self._params(table.params, self.plan.family(table.family).layout, False)
+
+    def section_params(self, section: Section) -> str:
+        return self._params(section.params, None, True)
+
+    def symbol(self, kind_key: str, key: tuple[int, ...]) -> str:
+        return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
+
+    def columns(self, table: Table) -> list[tuple[int, str]]:
+        """(position, name) of the arguments a grid row shows: all but the table's parameters."""
+        given = {name for name, _ in table.params}
+        return [(i, a) for i, a in enumerate(kind(table.kind).arguments) if a not in given]
+
+    def head_symbol(self, table: Table) -> str:
+        """The symbol with the table's parameters as numbers and the rest as names (column head)."""
+        given = dict(table.params)
+        return latex_symbol(
+            kind(table.kind).notation,
+            [half_text(given[a]) if a in given else qn_tex(a) for a in kind(table.kind).arguments],
+        )
 
 
 def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[tuple[str, bytes]]:
     """(path, bytes) for every fragment and sheet, then the booklet."""
     env = latex_environment()
+    helpers = _Helpers(plan)
     common = {
         "meta": meta,
         "recipe": plan.recipe,
@@ -123,30 +187,36 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "tt": tt_text,
         "pdf_text": pdf_text,
         "fragment_packages": FRAGMENT_PACKAGES,
+        **{name: getattr(helpers, name) for name in (
+            "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
+            "columns", "head_symbol",
+        )},
     }
     sheet = env.get_template("sheet.tex")
     for table in plan.tables:
-        fragment = env.get_template(FRAGMENT_TEMPLATES[table.family])
+        fam = plan.family(table.family)
+        fragment = env.get_template(f"fragment_{fam.layout.name}.tex")
         yield table.tex, _encode(
             fragment.render(
                 common,
                 table=table,
+                fam=fam,
+                layout=fam.layout,
                 fragment_file=posixpath.basename(table.tex),
-                value=_lookup(book, table.family),
+                value=_lookup(book, table.kind),
             )
         )
         yield table.tex_sheet, _encode(
-            sheet.render(common, table=table, fragment=_fragment_name(table, table.tex_sheet))
+            sheet.render(common, table=table, fam=fam, fragment=_fragment_name(table, table.tex_sheet))
         )
-    families = [
-        (f.family, [(t, _fragment_name(t, plan.booklet)) for t in plan.tables_of(f.family)])
-        for f in plan.recipe.families
-    ]
+    families = [(fam, [(t, _fragment_name(t, plan.booklet)) for t in plan.tables_of(fam.key)]) for fam in plan.families]
+    counts = dict(meta.counts)
     booklet = env.get_template("booklet.tex")
     yield plan.booklet, _encode(
         booklet.render(
             common,
             families=[f for f in families if f[1]],
+            counted=[(fam, counts.get(fam.key, 0)) for fam in plan.families],
             bibtex_lines=bibtex(meta).rstrip("\n").split("\n"),
             recipe_lines=meta.recipe_toml.rstrip("\n").split("\n"),
             citation=plain_citation(meta),

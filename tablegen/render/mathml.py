@@ -7,9 +7,10 @@ Two sources of MathML:
   conventions and methods pages) into MathML.  A value's MathML is made from
   its own LaTeX, so the two can never disagree, and every root stays written
   out as an ``<msqrt>``.
-* the notation builders (``cg_symbol``, ``threej_symbol``, ``sixj_symbol``,
-  ``ninej_symbol``, ``w_symbol``, ``ket``) write symbols on doubled quantum
-  numbers directly: half-integers appear as ``3/2`` and minus signs as U+2212.
+* the notation builders (``symbol`` from a kind's Notation record, ``ket``,
+  ``ket_product``, ``equation``) write symbols on doubled quantum numbers
+  directly: half-integers appear as ``3/2`` and minus signs as U+2212.  The
+  HTML renderer builds every piece of MathML here, never by concatenation.
 
 Output is compact (no whitespace between elements) and well-formed XML; the
 ``<math>`` element carries no namespace attribute, which HTML does not need.
@@ -31,11 +32,10 @@ __all__ = [
     "value_inner",
     "surd_mathml",
     "qn",
-    "cg_symbol",
-    "threej_symbol",
-    "sixj_symbol",
-    "ninej_symbol",
-    "w_symbol",
+    "symbol",
+    "equation",
+    "text",
+    "ket_product",
     "ket",
     "ket_text",
     "math",
@@ -72,6 +72,8 @@ _OPERATORS = {
     "lvert": "|", "rvert": "|", "vert": "|", "mid": "|", "sum": "∑", "prod": "∏",
     "lbrace": "{", "rbrace": "}", "lfloor": "⌊", "rfloor": "⌋", "lceil": "⌈", "rceil": "⌉",
 }
+#: Function names written upright, followed by an invisible function application (U+2061).
+_FUNCTIONS = ("sin", "cos", "tan", "exp", "log")
 _SPACES = {",": "0.17em", ":": "0.22em", ";": "0.28em", " ": "0.25em", "quad": "1em", "qquad": "2em"}
 _FENCES = {"pmatrix": ("(", ")"), "Bmatrix": ("{", "}"), "vmatrix": ("|", "|"), "matrix": ("", "")}
 _CHAR_OPERATORS = set("+=()[]|,;<>/!:'")
@@ -103,7 +105,7 @@ class _Parser:
         return tok
 
     def expect(self, text: str) -> None:
-        kind, value = self.take()
+        token, value = self.take()
         if value != text:
             raise TexError(f"expected {text!r} but found {value!r} in {self.tex!r}")
 
@@ -113,7 +115,7 @@ class _Parser:
         start = self.starts[self.pos - 1] + 1
         depth = 1
         while True:
-            kind, value = self.take()
+            token, value = self.take()
             if value == "{":
                 depth += 1
             elif value == "}":
@@ -182,15 +184,15 @@ class _Parser:
         )
 
     def atom(self) -> str:
-        kind, value = self.take()
-        if kind == "num":
+        token, value = self.take()
+        if token == "num":
             return f"<mn>{value}</mn>"
         if value in _PAIRS:
             left, closer, right = _PAIRS[value]
             return self.fenced(left, closer, right)
         if value == "|" or value == "\\|":
             return _mo("|")
-        if kind == "esc":
+        if token == "esc":
             ch = value[1]
             if ch in "{}":
                 return _mo(ch)
@@ -199,7 +201,7 @@ class _Parser:
             if ch == "\\":
                 raise TexError(f"row break outside a matrix in {self.tex!r}")
             return f'<mspace width="{_SPACES[ch]}"/>'
-        if kind == "cmd":
+        if token == "cmd":
             return self.command(value[1:])
         if value == "{":
             items = self.sequence(("}",))
@@ -241,6 +243,8 @@ class _Parser:
             raise TexError(f"\\right without \\left in {self.tex!r}")
         if name == "begin":
             return self.environment(self.raw_group())
+        if name in _FUNCTIONS:
+            return f"<mi>{name}</mi><mo>\u2061</mo>"
         if name in _SPACES:
             return f'<mspace width="{_SPACES[name]}"/>'
         if name in _IDENTIFIERS:
@@ -251,12 +255,12 @@ class _Parser:
 
     def delimiter(self) -> str:
         """The delimiter after \\left or \\right ('' for '.')."""
-        kind, value = self.take()
-        if kind == "cmd":
+        token, value = self.take()
+        if token == "cmd":
             if value[1:] not in _OPERATORS:
                 raise TexError(f"unsupported delimiter {value!r} in {self.tex!r}")
             return _OPERATORS[value[1:]]
-        symbol = value[1:] if kind == "esc" else value
+        symbol = value[1:] if token == "esc" else value
         return "" if symbol == "." else symbol
 
     def environment(self, env: str) -> str:
@@ -266,7 +270,7 @@ class _Parser:
         while True:
             cell = self.sequence(("&", "\\\\", "\\end"))
             rows[-1].append(_unrow(_row(cell)))
-            kind, value = self.take()
+            token, value = self.take()
             if value == "&":
                 continue
             if value == "\\\\":
@@ -368,41 +372,39 @@ def qn(t: int) -> str:
 _GAP = '<mspace width="0.3em"/>'
 
 
-def cg_symbol(key: tuple[int, ...]) -> str:
-    """⟨j1 m1; j2 m2 | J M⟩ from doubled (j1, m1, j2, m2, J, M)."""
-    j1, m1, j2, m2, big_j, big_m = (qn(t) for t in key)
-    return (
-        f"<mrow><mo>⟨</mo>{j1}{_GAP}{m1}<mo>;</mo>{j2}{_GAP}{m2}"
-        f"<mo>|</mo>{big_j}{_GAP}{big_m}<mo>⟩</mo></mrow>"
-    )
+def symbol(notation, key: tuple[int, ...]) -> str:
+    """A symbol on doubled arguments, written as its kind's Notation says.
+
+    "braket": <j1 m1; j2 m2 | J M>; "array": rows stacked in () or {};
+    "function": name(g0; g1), e.g. W(a b c d; e f).
+    """
+    groups = [[qn(key[i]) for i in g] for g in notation.groups]
+    if notation.style == "array":
+        body = "".join("<mtr>" + "".join(f"<mtd>{c}</mtd>" for c in g) + "</mtr>" for g in groups)
+        left, right = notation.brackets
+        return f"<mrow><mo>{left}</mo><mtable>{body}</mtable><mo>{right}</mo></mrow>"
+    parts = [_GAP.join(g) for g in groups]
+    if notation.style == "braket":
+        return f"<mrow><mo>⟨</mo>{'<mo>;</mo>'.join(parts[:-1])}<mo>|</mo>{parts[-1]}<mo>⟩</mo></mrow>"
+    if notation.style == "function":
+        inner = "<mo>;</mo>".join(parts)
+        return f"<mrow><mi>{escape(notation.name)}</mi><mrow><mo>(</mo>{inner}<mo>)</mo></mrow></mrow>"
+    raise ValueError(f"argument notation.style = {notation.style!r}: must be array, braket or function")
 
 
-def _array(rows: list[list[int]], left: str, right: str) -> str:
-    body = "".join("<mtr>" + "".join(f"<mtd>{qn(t)}</mtd>" for t in r) + "</mtr>" for r in rows)
-    return f"<mrow><mo>{left}</mo><mtable>{body}</mtable><mo>{right}</mo></mrow>"
+def equation(left: str, right: str) -> str:
+    """MathML content 'left = right'."""
+    return f"{left}<mo>=</mo>{right}"
 
 
-def threej_symbol(key: tuple[int, ...]) -> str:
-    """(j1 j2 j3; m1 m2 m3) as a parenthesised 2×3 array."""
-    return _array([list(key[:3]), list(key[3:])], "(", ")")
+def text(words: str) -> str:
+    """An <mtext> element."""
+    return f"<mtext>{escape(words)}</mtext>"
 
 
-def sixj_symbol(key: tuple[int, ...]) -> str:
-    """{j1 j2 j3; j4 j5 j6} as a braced 2×3 array."""
-    return _array([list(key[:3]), list(key[3:])], "{", "}")
-
-
-def ninej_symbol(key: tuple[int, ...]) -> str:
-    """The 9j, rows in order, as a braced 3×3 array."""
-    return _array([list(key[0:3]), list(key[3:6]), list(key[6:9])], "{", "}")
-
-
-def w_symbol(key: tuple[int, ...]) -> str:
-    """W(a b c d; e f)."""
-    a, b, c, d, e, f = (qn(t) for t in key)
-    return (
-        f"<mrow><mi>W</mi><mrow><mo>(</mo>{a}{_GAP}{b}{_GAP}{c}{_GAP}{d}<mo>;</mo>{e}{_GAP}{f}<mo>)</mo></mrow></mrow>"
-    )
+def ket_product(*pairs: tuple[int, int]) -> str:
+    """|j1, m1⟩|j2, m2⟩... as one compact <mtext> (for long ket expansions)."""
+    return text("".join(ket_text(tj, tm) for tj, tm in pairs))
 
 
 def ket_text(tj: int, tm: int) -> str:

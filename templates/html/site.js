@@ -1,22 +1,29 @@
 /* tablegen reference site: copy buttons and the jump box.
  *
  * Everything here works on pages opened straight from disk (file://): no
- * request is made, the jump box builds page names and anchors itself, the
- * same way the site generator does.  The pages read fine without this script.
+ * request is made.  What the jump box must know -- the kinds of value with
+ * their argument names, selection rules and notation, the families with their
+ * layouts, ranges, page-name and anchor patterns -- is written into every page
+ * by the generator, from its records, as the JSON block #tablegen-data.  This
+ * script keeps only the parsing of typed numbers and the symmetry algorithms
+ * that find the canonical form of a typed symbol.  The pages read fine without it.
  */
 (function () {
   "use strict";
-
-  // Ranges of this build, written in by the generator:
-  // {"families": {"cg": [min 2j, max 2j], ...}, "pages": {"6j": [paths], "9j": [paths]}}
-  var BUILD = /*BUILD*/null;
 
   var doc = document;
   var html = doc.documentElement;
   var ROOT = html.getAttribute("data-root") || "";
   var HERE = html.getAttribute("data-page") || "";
   var NOTE_KEY = "tablegen-jump";
+  var DATA = readData();
   html.className += " js";
+
+  function readData() {
+    var block = doc.getElementById("tablegen-data");
+    if (!block) return null;
+    try { return JSON.parse(block.textContent); } catch (e) { return null; }
+  }
 
   // ---------------------------------------------------------------- copying
   function copyText(text, done) {
@@ -61,13 +68,14 @@
 
   // The LaTeX of a coupled state |J M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
   // made from the LaTeX of the coefficients in its grid row (each cell's data-t).
+  // The row's id is "<tag>:<third>=<value>,<row>=<value>", as the grid layout writes it.
   function ketLatex(li) {
-    var state = /^ket:J=([^,]+),M=(.+)$/.exec(li.id);
+    var state = /^[^:]+:[^=]+=([^,]+),([^=]+)=(.+)$/.exec(li.id);
     var link = doc.querySelector('a[href="#' + li.id + '"]');
     var row = link.closest("tr");
     var j = row.closest("table").getAttribute("data-j").split(",");
-    var tM = doubled(state[2], "M");
-    var out = "|" + state[1] + "," + state[2] + "\\rangle = ";
+    var tM = doubled(state[3], state[2]);
+    var out = "|" + state[1] + "," + state[3] + "\\rangle = ";
     var first = true;
     var cells = row.querySelectorAll("td[data-t]");
     for (var i = 0; i < cells.length; i++) {
@@ -141,21 +149,14 @@
   function nice(t) { return half(t).replace("-", "\u2212"); }
   function fileCode(t) { return t % 2 === 0 ? String(t / 2) : Math.floor(t / 2) + ".5"; }
 
-  function triadRule(a, b, c, names) {
-    if ((a + b + c) % 2 !== 0) return names + " do not add up to an integer";
-    if (c < Math.abs(a - b) || c > a + b) return names + " break the triangle rule";
-    return null;
+  function rangeText(fam) {
+    var r = fam.range;
+    return r[0] === 0 ? "j \u2264 " + nice(r[1]) : nice(r[0]) + " \u2264 j \u2264 " + nice(r[1]);
   }
 
   function inRange(fam, list) {
-    var r = BUILD.families[fam];
-    for (var i = 0; i < list.length; i++) if (list[i] < r[0] || list[i] > r[1]) return false;
+    for (var i = 0; i < list.length; i++) if (list[i] < fam.range[0] || list[i] > fam.range[1]) return false;
     return true;
-  }
-
-  function rangeText(fam) {
-    var r = BUILD.families[fam];
-    return r[0] === 0 ? "j \u2264 " + nice(r[1]) : nice(r[0]) + " \u2264 j \u2264 " + nice(r[1]);
   }
 
   function greater(x, y) {
@@ -174,20 +175,32 @@
     return out;
   }
 
-  function symbolAnchor(key) {
-    var parts = [];
-    for (var i = 0; i < key.length; i += 3) parts.push([half(key[i]), half(key[i + 1]), half(key[i + 2])].join(","));
-    return parts.join(";");
+  // A symbol in the kind's notation: open, groups joined by their separators, close.
+  function writeSymbol(kind, t) {
+    var out = kind.open;
+    for (var g = 0; g < kind.groups.length; g++) {
+      if (g) out += kind.seps[g - 1];
+      out += kind.groups[g].map(function (i) { return nice(t[i]); }).join(" ");
+    }
+    return out + kind.close;
   }
 
-  function symbolText(key) {
-    var parts = [];
-    for (var i = 0; i < key.length; i += 3) parts.push([nice(key[i]), nice(key[i + 1]), nice(key[i + 2])].join(" "));
-    return "{" + parts.join("; ") + "}";
+  // The id of a class row: the kind's groups, entries joined by ",", groups by ";".
+  function classAnchor(kind, t) {
+    return kind.groups.map(function (g) {
+      return g.map(function (i) { return half(t[i]); }).join(",");
+    }).join(";");
   }
 
+  // Fill "{name}" in a page or anchor pattern from the named doubled values.
+  function fill(pattern, named, format) {
+    return pattern.replace(/\{([^}]+)\}/g, function (_, name) { return format(named[name]); });
+  }
+
+  // ------------------------------------------------ symmetry classes
+  // Each returns [forms, signs] with value(form) = sign * value(t).
   // 6j: the class is every form with the same triad sums and quadrangle sums
-  // (in any order); the canonical form is the largest.
+  // (in any order), all equal (tetrahedral and Regge symmetries).
   function sixjFromSums(al, be) {
     return [
       (be[0] - al[3]) + (be[1] - al[2]),
@@ -203,21 +216,17 @@
     var a = t[0], b = t[1], c = t[2], d = t[3], e = t[4], f = t[5];
     var al = [(a + b + c) / 2, (a + e + f) / 2, (d + b + f) / 2, (d + e + c) / 2];
     var be = [(a + b + d + e) / 2, (a + c + d + f) / 2, (b + c + e + f) / 2];
-    var pa = permutations(al), pb = permutations(be), out = [];
-    for (var i = 0; i < pa.length; i++) for (var k = 0; k < pb.length; k++) out.push(sixjFromSums(pa[i], pb[k]));
-    return out;
-  }
-
-  function largest(list) {
-    var best = list[0];
-    for (var i = 1; i < list.length; i++) if (greater(list[i], best)) best = list[i];
-    return best;
+    var pa = permutations(al), pb = permutations(be), forms = [], signs = [];
+    for (var i = 0; i < pa.length; i++) {
+      for (var k = 0; k < pb.length; k++) { forms.push(sixjFromSums(pa[i], pb[k])); signs.push(1); }
+    }
+    return [forms, signs];
   }
 
   var PERMS3 = [[0, 1, 2, 0], [0, 2, 1, 1], [1, 0, 2, 1], [1, 2, 0, 0], [2, 0, 1, 0], [2, 1, 0, 1]];
 
   // 9j: row and column permutations and the transpose; an odd permutation
-  // brings the sign (-1)^(sum of the nine j).  Returns [forms, signs].
+  // brings the sign (-1)^(sum of the nine j).
   function ninejMembers(t) {
     var oddSign = ((t.reduce(function (s, x) { return s + x; }, 0) / 2) % 2 === 0) ? 1 : -1;
     var forms = [], signs = [], seen = {};
@@ -242,153 +251,102 @@
     return [forms, signs];
   }
 
-  // ------------------------------------------------------------ families
-  var FAMILIES = {
-    cg: {
-      label: "Clebsch\u2013Gordan \u27e8j1 m1; j2 m2 | J M\u27e9", data: "cg",
-      names: ["j1", "m1", "j2", "m2", "J", "M"],
-      shape: ["\u27e8", 0, 1, ";", 2, 3, "|", 4, 5, "\u27e9"]
-    },
-    "3j": {
-      label: "Wigner 3j (j1 j2 j3; m1 m2 m3)", data: "3j",
-      names: ["j1", "j2", "j3", "m1", "m2", "m3"],
-      shape: ["(", 0, 1, 2, ";", 3, 4, 5, ")"]
-    },
-    "6j": {
-      label: "Wigner 6j {j1 j2 j3; j4 j5 j6}", data: "6j",
-      names: ["j1", "j2", "j3", "j4", "j5", "j6"],
-      shape: ["{", 0, 1, 2, ";", 3, 4, 5, "}"]
-    },
-    w: {
-      label: "Racah W(a b c d; e f)", data: "6j",
-      names: ["a", "b", "c", "d", "e", "f"],
-      shape: ["W(", 0, 1, 2, 3, ";", 4, 5, ")"]
-    },
-    "9j": {
-      label: "Wigner 9j {j11 j12 j13; j21 \u2026 j33}", data: "9j",
-      names: ["j11", "j12", "j13", "j21", "j22", "j23", "j31", "j32", "j33"],
-      shape: ["{", 0, 1, 2, ";", 3, 4, 5, ";", 6, 7, 8, "}"]
-    }
-  };
+  // Named after the Python function each one mirrors (the kind's "members").
+  var MEMBERS = { sixj_members: sixjMembers, ninej_members: ninejMembers };
+
+  // ------------------------------------------------------------ finding
+  var KINDS = {}, KIND_ORDER = [];
+  if (DATA) DATA.kinds.forEach(function (k) { KINDS[k.id] = k; KIND_ORDER.push(k.id); });
 
   function result(kind, text, path, anchor) {
     return { kind: kind, text: text, path: path || null, anchor: anchor || null };
   }
   function zero(text) { return result("zero", "Zero: " + text + ", so it is not tabulated."); }
+  function minusOne(sign) { return sign < 0 ? "\u22121 \u00d7 " : ""; }
 
-  function notInBuild(fam, what) {
-    if (!BUILD.families[fam]) return result("bad", what + " are not part of this build.");
+  // The selection rules of a kind, from its lists: the j's, each (j, m) pair,
+  // the projection sum and the triads.  Returns the reason for a zero, or null.
+  function selectionRule(k, t) {
+    var n = k.names, i, why;
+    for (i = 0; i < k.js.length; i++) {
+      if (t[k.js[i]] < 0) throw new InputError(n[k.js[i]] + " must be \u2265 0");
+    }
+    for (i = 0; i < k.pairs.length; i++) {
+      var ij = k.pairs[i][0], im = k.pairs[i][1];
+      if ((t[ij] - t[im]) % 2 !== 0) {
+        throw new InputError(n[ij] + " \u2212 " + n[im] + " must be an integer (" + n[ij] + " = " + nice(t[ij]) + ")");
+      }
+      if (Math.abs(t[im]) > t[ij]) return "|" + n[im] + "| > " + n[ij];
+    }
+    if (k.msum.length) {
+      var total = 0, terms = [];
+      for (i = 0; i < k.msum.length; i++) {
+        if (!k.msum[i]) continue;
+        total += k.msum[i] * t[i];
+        terms.push((k.msum[i] < 0 ? "\u2212 " : terms.length ? "+ " : "") + n[i]);
+      }
+      if (total !== 0) return terms.join(" ") + " \u2260 0 (the m's do not add up)";
+    }
+    for (i = 0; i < k.triads.length; i++) {
+      var p = k.triads[i], a = t[p[0]], b = t[p[1]], c = t[p[2]];
+      var names = n[p[0]] + ", " + n[p[1]] + ", " + n[p[2]];
+      if ((a + b + c) % 2 !== 0) return names + " " + DATA.texts["triad-sum"];
+      if (c < Math.abs(a - b) || c > a + b) return names + " " + DATA.texts.triangle;
+    }
     return null;
   }
 
-  function checkJs(names, t, idx) {
-    for (var i = 0; i < idx.length; i++) {
-      if (t[idx[i]] < 0) throw new InputError(names[idx[i]] + " must be \u2265 0");
+  // grid and matrix layouts: page and anchor follow from the arguments by name.
+  function patternTarget(fam, k, t) {
+    var named = {};
+    k.names.forEach(function (name, i) { named[name] = t[i]; });
+    var params = fam.params.map(function (name) { return named[name]; });
+    if (!inRange(fam, params)) {
+      return result("bad", fam.params.join(" and ") + " must be in this build's range " + rangeText(fam) + ".");
     }
+    return result("ok", "", fill(fam.page, named, fileCode), fill(fam.anchor, named, half));
   }
 
-  function checkProjection(names, t, ij, im) {
-    if ((t[ij] - t[im]) % 2 !== 0) {
-      throw new InputError(names[ij] + " \u2212 " + names[im] + " must be an integer (" + names[ij] + " = " + nice(t[ij]) + ")");
-    }
-    if (Math.abs(t[im]) > t[ij]) return "|" + names[im] + "| > " + names[ij];
-    return null;
-  }
-
-  function resolveCG(t) {
-    var n = FAMILIES.cg.names, why;
-    checkJs(n, t, [0, 2, 4]);
-    why = checkProjection(n, t, 0, 1) || checkProjection(n, t, 2, 3) || checkProjection(n, t, 4, 5);
-    if (why) return zero(why);
-    if (t[1] + t[3] !== t[5]) return zero("m1 + m2 \u2260 M (the m's do not add up)");
-    why = triadRule(t[0], t[2], t[4], "j1, j2, J");
-    if (why) return zero(why);
-    var missing = notInBuild("cg", "Clebsch\u2013Gordan coefficients");
-    if (missing) return missing;
-    if (!inRange("cg", [t[0], t[2]])) return result("bad", "j1 and j2 must be in this build's range " + rangeText("cg") + ".");
-    return result("ok", "", "cg/" + fileCode(t[0]) + "x" + fileCode(t[2]) + ".html",
-      "J=" + half(t[4]) + ",M=" + half(t[5]) + ",m1=" + half(t[1]));
-  }
-
-  function resolve3j(t) {
-    var n = FAMILIES["3j"].names, why;
-    checkJs(n, t, [0, 1, 2]);
-    why = checkProjection(n, t, 0, 3) || checkProjection(n, t, 1, 4) || checkProjection(n, t, 2, 5);
-    if (why) return zero(why);
-    if (t[3] + t[4] + t[5] !== 0) return zero("m1 + m2 + m3 \u2260 0 (the m's do not add up)");
-    why = triadRule(t[0], t[1], t[2], "j1, j2, j3");
-    if (why) return zero(why);
-    var missing = notInBuild("3j", "3j symbols");
-    if (missing) return missing;
-    if (!inRange("3j", [t[0], t[1]])) return result("bad", "j1 and j2 must be in this build's range " + rangeText("3j") + ".");
-    return result("ok", "", "3j/" + fileCode(t[0]) + "x" + fileCode(t[1]) + ".html",
-      "j3=" + half(t[2]) + ",m3=" + half(t[5]) + ",m1=" + half(t[3]));
-  }
-
-  function sixjTarget(t, what, sign) {
-    var a = t[0], b = t[1], c = t[2], d = t[3], e = t[4], f = t[5], why;
-    why = triadRule(a, b, c, "(j1, j2, j3)") || triadRule(a, e, f, "(j1, j5, j6)") ||
-      triadRule(d, b, f, "(j4, j2, j6)") || triadRule(d, e, c, "(j4, j5, j3)");
-    if (why) return zero(why);
-    var missing = notInBuild("6j", "6j symbols and Racah W");
-    if (missing) return missing;
-    var forms = sixjMembers(t), any = false;
-    for (var i = 0; i < forms.length; i++) if (inRange("6j", forms[i])) { any = true; break; }
-    if (!any) return result("bad", "No form of this 6j has every j in this build's range " + rangeText("6j") + ".");
-    var canon = largest(forms);
-    var path = "6j/jmax-" + fileCode(canon[0]) + ".html";
-    if (BUILD.pages["6j"].indexOf(path) < 0) return result("bad", "This 6j is not part of this build.");
-    var text = "";
-    if (what) {
-      text = what + " = " + (sign < 0 ? "\u22121 \u00d7 " : "") + symbolText(t) +
-        (canon.join() === t.join() ? "" : " = " + (sign < 0 ? "\u22121 \u00d7 " : "") + "the canonical form " + symbolText(canon)) + ".";
-    } else if (canon.join() !== t.join()) {
-      text = symbolText(t) + " equals its canonical form " + symbolText(canon) + ", shown highlighted.";
-    }
-    return result("ok", text, path, symbolAnchor(canon));
-  }
-
-  function resolve6j(t) {
-    checkJs(FAMILIES["6j"].names, t, [0, 1, 2, 3, 4, 5]);
-    return sixjTarget(t, "", 1);
-  }
-
-  function resolveW(t) {
-    checkJs(FAMILIES.w.names, t, [0, 1, 2, 3, 4, 5]);
-    var a = t[0], b = t[1], c = t[2], d = t[3], e = t[4], f = t[5];
-    var sign = ((a + b + c + d) / 2) % 2 === 0 ? 1 : -1;  // a+b+c+d is whole once the triads hold
-    var why = triadRule(a, b, e, "(a, b, e)") || triadRule(c, d, e, "(c, d, e)") ||
-      triadRule(a, c, f, "(a, c, f)") || triadRule(b, d, f, "(b, d, f)");
-    if (why) return zero(why);
-    var what = "W(" + [nice(a), nice(b), nice(c), nice(d)].join(" ") + "; " + nice(e) + " " + nice(f) + ")";
-    return sixjTarget([a, b, e, d, c, f], what, sign);
-  }
-
-  function resolve9j(t) {
-    var n = FAMILIES["9j"].names, why, i;
-    checkJs(n, t, [0, 1, 2, 3, 4, 5, 6, 7, 8]);
-    for (i = 0; i < 3 && !why; i++) {
-      why = triadRule(t[3 * i], t[3 * i + 1], t[3 * i + 2], "the entries of row " + (i + 1)) ||
-        triadRule(t[i], t[i + 3], t[i + 6], "the entries of column " + (i + 1));
-    }
-    if (why) return zero(why);
-    var missing = notInBuild("9j", "9j symbols");
-    if (missing) return missing;
-    if (!inRange("9j", t)) return result("bad", "Every j must be in this build's range " + rangeText("9j") + ".");
-    var both = ninejMembers(t), forms = both[0], signs = both[1];
+  // classes layout: the page of the canonical (largest) form, the row of its class.
+  function classTarget(fam, k, t, what, sign) {
+    var both = MEMBERS[fam.members](t), forms = both[0], signs = both[1], i, any = false;
+    for (i = 0; i < forms.length; i++) if (inRange(fam, forms[i])) { any = true; break; }
+    if (!any) return result("bad", "No form of this " + k.key + " has every j in this build's range " + rangeText(fam) + ".");
     var best = 0;
     for (i = 1; i < forms.length; i++) if (greater(forms[i], forms[best])) best = i;
-    var canon = forms[best], sign = signs[best];
-    var path = "9j/jmax-" + fileCode(canon[0]) + ".html";
-    if (BUILD.pages["9j"].indexOf(path) < 0) return result("bad", "This 9j is not part of this build.");
-    var text = "";
-    if (canon.join() !== t.join()) {
-      text = symbolText(t) + " = " + (sign < 0 ? "\u22121 \u00d7 " : "") + "its canonical form " + symbolText(canon) + ", shown highlighted.";
+    var canon = forms[best], total = sign * signs[best];
+    var path = fill(fam.page, { top: canon[0] }, fileCode);
+    if (fam.pages.indexOf(path) < 0) return result("bad", "This " + k.key + " is not part of this build.");
+    var same = canon.join() === t.join(), text = "";
+    if (what) {
+      text = what + " = " + minusOne(sign) + writeSymbol(k, t) +
+        (same ? "" : " = " + minusOne(total) + "the canonical form " + writeSymbol(k, canon)) + ".";
+    } else if (!same) {
+      text = writeSymbol(k, t) + (total < 0 ? " = \u22121 \u00d7 its canonical form " : " equals its canonical form ") +
+        writeSymbol(k, canon) + ", shown highlighted.";
     }
-    return result("ok", text, path, symbolAnchor(canon));
+    return result("ok", text, path, classAnchor(k, canon));
   }
 
-  var RESOLVE = { cg: resolveCG, "3j": resolve3j, "6j": resolve6j, w: resolveW, "9j": resolve9j };
+  function resolve(id, t) {
+    var k = KINDS[id], why = selectionRule(k, t);
+    if (why) return zero(why);
+    var fam = DATA.families[k.family], main = null;
+    KIND_ORDER.forEach(function (other) {  // the family's own kind (not a companion)
+      if (!main && KINDS[other].family === k.family && !KINDS[other].map) main = KINDS[other];
+    });
+    var target = t, sign = 1, what = "";
+    if (k.map) {  // a companion: the family's own symbol it equals, with the sign
+      target = [];
+      k.map.order.forEach(function (from, at) { target[from] = t[at]; });
+      var s = 0;
+      k.map.phase.forEach(function (i) { s += target[i]; });
+      sign = (s / 2) % 2 === 0 ? 1 : -1;
+      what = writeSymbol(k, t);
+    }
+    if (fam.layout === "classes") return classTarget(fam, main, target, what, sign);
+    return patternTarget(fam, main, target);
+  }
 
   // ------------------------------------------------------------ the box
   function remember(state) {
@@ -429,12 +387,10 @@
     label.textContent = "Go to ";
     var select = doc.createElement("select");
     select.setAttribute("aria-label", "Family");
-    Object.keys(FAMILIES).forEach(function (key) {
-      var fam = FAMILIES[key];
-      if (!BUILD.families[fam.data]) return;
+    KIND_ORDER.forEach(function (key) {
       var o = doc.createElement("option");
       o.value = key;
-      o.textContent = fam.label;
+      o.textContent = KINDS[key].label;
       select.appendChild(o);
     });
     label.appendChild(select);
@@ -453,29 +409,33 @@
 
     var inputs = [];
     function layout(values) {
-      var fam = FAMILIES[select.value];
+      var k = KINDS[select.value];
       sym.textContent = "";
       inputs = [];
-      fam.shape.forEach(function (part) {
-        if (typeof part === "string") {
-          var b = doc.createElement("b");
-          b.textContent = part;
-          sym.appendChild(b);
-          return;
-        }
-        var input = doc.createElement("input");
-        input.type = "text";
-        input.inputMode = "text";
-        input.autocomplete = "off";
-        input.spellcheck = false;
-        input.placeholder = fam.names[part];
-        input.setAttribute("aria-label", fam.names[part]);
-        input.name = fam.names[part];
-        if (values && values[part] !== undefined) input.value = values[part];
-        input.addEventListener("input", spread);
-        sym.appendChild(input);
-        inputs[part] = input;
+      function mark(text) {
+        var b = doc.createElement("b");
+        b.textContent = text.trim();
+        sym.appendChild(b);
+      }
+      mark(k.open);
+      k.groups.forEach(function (group, g) {
+        if (g) mark(k.seps[g - 1]);
+        group.forEach(function (part) {
+          var input = doc.createElement("input");
+          input.type = "text";
+          input.inputMode = "text";
+          input.autocomplete = "off";
+          input.spellcheck = false;
+          input.placeholder = k.names[part];
+          input.setAttribute("aria-label", k.names[part]);
+          input.name = k.names[part];
+          if (values && values[part] !== undefined) input.value = values[part];
+          input.addEventListener("input", spread);
+          sym.appendChild(input);
+          inputs[part] = input;
+        });
       });
+      mark(k.close);
     }
 
     // Typing or pasting several numbers into one field fills the next ones.
@@ -495,8 +455,8 @@
       out.textContent = "";
       var fam = select.value, values = inputs.map(function (i) { return i.value; }), res;
       try {
-        var t = values.map(function (v, i) { return doubled(v, FAMILIES[fam].names[i]); });
-        res = RESOLVE[fam](t);
+        var t = values.map(function (v, i) { return doubled(v, KINDS[fam].names[i]); });
+        res = resolve(fam, t);
       } catch (e) {
         if (!(e instanceof InputError)) throw e;
         res = result("bad", e.message + ".");
@@ -523,9 +483,9 @@
     // Start with the family of this page; keep the last typed numbers if they fit it.
     var state = recall();
     var kind = doc.body.className;
-    var fam = FAMILIES[kind] && BUILD.families[kind] ? kind : null;
-    if (state && FAMILIES[state.fam] && BUILD.families[FAMILIES[state.fam].data] &&
-        (!fam || FAMILIES[state.fam].data === kind)) {
+    var fam = null;
+    KIND_ORDER.forEach(function (id) { if (!fam && KINDS[id].family === kind) fam = id; });
+    if (state && KINDS[state.fam] && (!fam || KINDS[state.fam].family === kind)) {
       fam = state.fam;
     }
     if (fam) select.value = fam;
@@ -547,7 +507,7 @@
   function start() {
     addCopyButtons();
     var box = doc.getElementById("jump");
-    if (box && BUILD) buildBox(box);
+    if (box && DATA && KIND_ORDER.length) buildBox(box);
   }
 
   if (doc.readyState === "loading") doc.addEventListener("DOMContentLoaded", start);

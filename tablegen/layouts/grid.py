@@ -1,0 +1,131 @@
+"""The grid layout: one coupling j1 x j2 per page, a section per third j, a grid per section.
+
+Rows are the third projection r (M for CG, m3 for 3j), columns m1, and m2
+follows from the projection sum m1 + m2 = m_sum_sign * r.  A value's key is
+assembled by argument name in its kind's order, so the layout needs no
+knowledge of which family it serves.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import TYPE_CHECKING, Callable
+
+from ..sitemodel import Entry, Link, Page, Section, Table, chain, file_code, half, table_files
+
+if TYPE_CHECKING:  # pragma: no cover
+    from ..families import Family
+    from ..recipe import FamilyRange
+
+__all__ = ["GridLayout"]
+
+
+@dataclass(frozen=True, slots=True)
+class GridLayout:
+    """Options of a grid: names of the third j and its projection, row ids, the twin family."""
+
+    third: str  # name of the third j: "J" or "j3"
+    row: str  # name of the third projection: "M" or "m3"
+    row_tag: str  # prefix of row ids: "ket" (rows are coupled states) or "row"
+    m_sum_sign: int  # m1 + m2 = m_sum_sign * row  (+1 for CG, -1 for 3j)
+    twin: str = ""  # the family holding the same numbers in another convention
+    row_states: bool = False  # rows are coupled states |third row>, written out as ket expansions
+    page_title: str = "{title} for j1 = {j1}, j2 = {j2}"  # pattern: {j1} {j2} {title}
+    page_label: str = "{j1} ⊗ {j2}"
+    count_noun: str = "values"
+
+    name = "grid"
+    params = ("j1", "j2")
+
+    # -- names (shared with the jump box through page_pattern / anchor_pattern) --
+    def page_path(self, key: str, tj1: int, tj2: int) -> str:
+        return f"{key}/{file_code(tj1)}x{file_code(tj2)}.html"
+
+    def anchor(self, tk: int, tr: int, tm1: int) -> str:
+        return f"{self.third}={half(tk)},{self.row}={half(tr)},m1={half(tm1)}"
+
+    def page_pattern(self, key: str) -> str:
+        """The page path with argument names in braces (the jump box fills them in)."""
+        return f"{key}/{{j1}}x{{j2}}.html"
+
+    def anchor_pattern(self) -> str:
+        return f"{self.third}={{{self.third}}},{self.row}={{{self.row}}},m1={{m1}}"
+
+    # -- planning --------------------------------------------------------------------
+    def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable[[str], "tuple[Family, FamilyRange] | None"]):
+        """(pages, tables) of the family: one page per (j1, j2) in the range."""
+        twin = lookup(self.twin) if self.twin else None
+        arguments = fam.kind_record.arguments
+        js = range(f.min_tj, f.max_tj + 1)
+        pages, tables = [], []
+        for tj1 in js:
+            for tj2 in js:
+                table = self._table(fam, arguments, tj1, tj2, twin)
+                related = []
+                if twin and _within(twin[1], tj1, tj2):
+                    tfam = twin[0]
+                    related.append(Link(f"{tfam.nav_label} for {half(tj1)} ⊗ {half(tj2)}",
+                                        tfam.layout.page_path(tfam.key, tj1, tj2)))
+                if tj1 != tj2:
+                    related.append(Link(f"reversed order {half(tj2)} ⊗ {half(tj1)}", self.page_path(fam.key, tj2, tj1)))
+                for d1, d2 in ((-1, 0), (1, 0), (0, -1), (0, 1)):
+                    a, b = tj1 + d1, tj2 + d2
+                    if _within(f, a, b):
+                        related.append(Link(f"{half(a)} ⊗ {half(b)}", self.page_path(fam.key, a, b)))
+                names = {"j1": half(tj1), "j2": half(tj2), "title": fam.title}
+                pages.append(Page(table.page, self.page_title.format(**names), fam.key, (table.id,),
+                                  related=tuple(related), label=self.page_label.format(**names)))
+                tables.append(table)
+        return chain(pages), tables
+
+    def _table(self, fam: "Family", arguments, tj1: int, tj2: int, twin) -> Table:
+        twin_page = twin_sign = None
+        if twin and _within(twin[1], tj1, tj2):
+            tfam = twin[0]
+            twin_page = tfam.layout.page_path(tfam.key, tj1, tj2)
+            twin_sign = self.m_sum_sign * tfam.layout.m_sum_sign  # its row value is twin_sign * ours
+        order = [("j1", "j2", self.third, "m1", "m2", self.row).index(a) for a in arguments]
+        cols = tuple(range(tj1, -tj1 - 1, -2))
+        sections = []
+        for tk in range(tj1 + tj2, abs(tj1 - tj2) - 1, -2):
+            rows = tuple(range(tk, -tk - 1, -2))
+            grid, entries = [], []
+            for tr in rows:
+                line = []
+                for tm1 in cols:
+                    tm2 = self.m_sum_sign * tr - tm1
+                    if abs(tm2) > tj2:
+                        line.append(None)
+                        continue
+                    by_name = (tj1, tj2, tk, tm1, tm2, tr)
+                    twin_id = f"{twin_page}#{tfam.layout.anchor(tk, twin_sign * tr, tm1)}" if twin_page else None
+                    e = Entry(tuple(by_name[i] for i in order), self.anchor(tk, tr, tm1), twin_id, 0, fam.kind)
+                    line.append(e)
+                    entries.append(e)
+                grid.append(tuple(line))
+            third = f"{self.third}={half(tk)}"
+            sections.append(Section(
+                title=f"{self.third} = {half(tk)}",
+                anchor=third,
+                entries=tuple(entries),
+                rows=rows,
+                columns=cols,
+                grid=tuple(grid),
+                row_anchors=tuple(f"{self.row_tag}:{third},{self.row}={half(tr)}" for tr in rows),
+                params=((self.third, tk),),
+            ))
+        tid = f"{fam.key}-{file_code(tj1)}x{file_code(tj2)}"
+        return Table(
+            id=tid,
+            family=fam.key,
+            title=f"{fam.title} for j1 = {half(tj1)}, j2 = {half(tj2)}",
+            page=self.page_path(fam.key, tj1, tj2),
+            sections=tuple(sections),
+            params=(("j1", tj1), ("j2", tj2)),
+            kind=fam.kind,
+            **table_files(tid),
+        )
+
+
+def _within(f: "FamilyRange | None", *tjs: int) -> bool:
+    return f is not None and all(f.min_tj <= t <= f.max_tj for t in tjs)
