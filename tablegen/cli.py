@@ -207,7 +207,7 @@ def _run_value(ns) -> int:
             "arguments": dict(zip(names, (_half(x) for x in t))),
             "symbol": symbol,
             "exact": exact,
-            "square": str(value.squared()),
+            **_sign_p_q(value),
             "decimal": decimal,
             "digits": ns.digits,
             "zero_rule": zero_rule,
@@ -328,6 +328,13 @@ def _run_verify(ns) -> int:
     for problem in report.problems:
         print(f"  {problem}")
     return EXIT_OK if report.ok else EXIT_FAILED
+
+
+def _sign_p_q(value) -> dict:
+    """value = sign * sqrt(p/q): p and q as decimal text (they may exceed 2**53)."""
+    from .intmath import int_text
+
+    return {"sign": value.sign, "p": int_text(value.p), "q": int_text(value.q)}
 
 
 def _half(t: int) -> str:
