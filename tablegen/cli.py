@@ -61,6 +61,8 @@ def _build_parser():
     value.add_argument("--latex", action="store_true", help="also print the LaTeX (both root styles)")
     value.add_argument("--json", action="store_true", help="print one JSON object instead of text")
     value.add_argument("--max-j", type=int, default=None, help="raise the size limit on j")
+    value.add_argument("--from", metavar="FILE", help="answer every line 'KIND ARG...' of FILE ('-': stdin) "
+                       "as CSV, or JSON lines with --json (see 'tablegen value --from - --help')")
 
     build = sub.add_parser(
         "build",
@@ -154,6 +156,10 @@ def _quick_value_call(argv: list[str]):
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; return the exit status."""
     argv = list(sys.argv[1:] if argv is None else argv)
+    if argv[:1] == ["value"] and any(a == "--from" or a.startswith("--from=") for a in argv):
+        from .batch import main_from  # batch answers: own options, own error lines
+
+        return main_from(argv[1:])
     try:
         quick = _quick_value_call(argv)
         if quick is not None:
