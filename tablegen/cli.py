@@ -96,6 +96,18 @@ def _build_parser():
     )
     verify.add_argument("folder", metavar="DIR")
     verify.set_defaults(run=_run_verify)
+
+    check = sub.add_parser(
+        "check",
+        help="compare another program's floating-point values with the exact ones",
+        description="Read a CSV with columns kind, value and either arguments (space-separated) or "
+        "arg1..arg9, and report per kind how many values agree to a relative tolerance, the largest "
+        "error in ulps, and every row with a wrong sign, a wrong selection-rule zero or a larger error. "
+        "Exit status 0 all agree, 1 some disagree, 2 bad input.",
+    )
+    check.add_argument("file", metavar="FILE", help="the CSV file ('-': stdin)")
+    check.add_argument("--rtol", metavar="X", help="relative tolerance (default 1e-12)")
+    check.set_defaults(run=lambda ns: __import__("tablegen.check").check.main_check(ns.file, ns.rtol))
     return parser
 
 
