@@ -316,7 +316,8 @@ def _options(argv: list[str]) -> dict:
             if not eq:
                 text = next(tokens, None)
                 if text is None:
-                    raise BadLine(f"argument {name}: expected a value")
+                    what = "a file name or '-' for stdin" if name == "--from" else "a whole number"
+                    raise BadLine(f"argument {name}: expected {what}")
             if name == "--from":
                 options["source"] = text
                 continue
