@@ -30,28 +30,6 @@ def check_digits(digits: object) -> None:
         raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {MAX_DIGITS}")
 
 
-def _bracket(a: int, p: int, q: int, s: int) -> int:
-    """Compare sqrt(p/q)*10**s with a +- 1/2: -1 below a-1/2, 1 at/above a+1/2, 0 inside.
-
-    Uses 4*x versus (2a+-1)**2 with x = p*10**(2s)/q, all in integers.
-    """
-    if s >= 0:
-        lhs_num, lhs_den = 4 * p * 10 ** (2 * s), q
-    else:
-        lhs_num, lhs_den = 4 * p, q * 10 ** (-2 * s)
-    lo = (2 * a - 1) ** 2 * lhs_den
-    hi = (2 * a + 1) ** 2 * lhs_den
-    if lhs_num < lo:
-        return -1
-    if lhs_num > hi:
-        return 1
-    if lhs_num == hi:  # exact tie above: half to even
-        return 0 if a % 2 == 0 else 1
-    if lhs_num == lo:  # exact tie below
-        return 0 if a % 2 == 0 else -1
-    return 0
-
-
 _FAST_LEN = 1 << 3000
 
 
@@ -68,24 +46,36 @@ def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
     # first guess of the decimal exponent from the integers' lengths; the exact
     # check below corrects it by one either way if needed
     e10 = (len(int_text(p)) - len(int_text(q))) // 2 if max(p, q) < _FAST_LEN else _log10_guess(p, q)
-    low, high = 10 ** (digits - 1), 10**digits
+    low2, high2 = _pow10(2 * digits - 2), _pow10(2 * digits)  # 10**(digits-1) and 10**digits, squared
     # settle the exponent exactly: low <= sqrt(p/q) * 10**s < high, s = digits-1-e10
     for _ in range(8):
         s = digits - 1 - e10
-        num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
-        if num >= high * high * den:
+        num, den = (p * _pow10(2 * s), q) if s >= 0 else (p, q * _pow10(-2 * s))
+        if num >= high2 * den:
             e10 += 1
-        elif num < low * low * den:
+        elif num < low2 * den:
             e10 -= 1
         else:
             break
-    s = digits - 1 - e10
-    num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
+    else:  # pragma: no cover - the guess is never that far off
+        s = digits - 1 - e10
+        num, den = (p * _pow10(2 * s), q) if s >= 0 else (p, q * _pow10(-2 * s))
     a = isqrt(num // den)  # floor(sqrt(num/den)), since isqrt(floor(x)) = floor(sqrt(x))
-    a += _bracket(a, p, q, s)  # 0 or 1: round half to even, decided exactly
-    if a == high:  # rounding carried into the next power of ten
-        a, e10 = low, e10 + 1
+    # round half to even, decided exactly: sqrt(num/den) against a + 1/2
+    lhs, mid = 4 * num, (2 * a + 1) ** 2 * den
+    if lhs > mid or (lhs == mid and a & 1):
+        a += 1
+        if a == _pow10(digits):  # rounding carried into the next power of ten
+            a, e10 = _pow10(digits - 1), e10 + 1
     return _format(sign, int_text(a), e10)
+
+
+def _pow10(n: int) -> int:
+    """10**n, from a small table for the exponents decimals use most."""
+    return _POW10[n] if n < len(_POW10) else 10**n
+
+
+_POW10 = [10**k for k in range(128)]
 
 
 def surd_float(sign: int, p: int, q: int) -> float:
