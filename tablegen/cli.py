@@ -107,7 +107,7 @@ def _build_parser():
     )
     check.add_argument("file", metavar="FILE", help="the CSV file ('-': stdin)")
     check.add_argument("--rtol", metavar="X", help="relative tolerance (default 1e-12)")
-    check.set_defaults(run=lambda ns: __import__("tablegen.check").check.main_check(ns.file, ns.rtol))
+    check.set_defaults(run=_run_check)
     return parser
 
 
@@ -168,11 +168,11 @@ def _quick_value_call(argv: list[str]):
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; return the exit status."""
     argv = list(sys.argv[1:] if argv is None else argv)
-    if argv[:1] == ["value"] and any(a == "--from" or a.startswith("--from=") for a in argv):
-        from .batch import main_from  # batch answers: own options, own error lines
-
-        return main_from(argv[1:])
     try:
+        if argv[:1] == ["value"] and any(a == "--from" or a.startswith("--from=") for a in argv):
+            from .batch import main_from  # batch answers: own options, own error lines
+
+            return main_from(argv[1:])
         quick = _quick_value_call(argv)
         if quick is not None:
             return _run_value(quick)
@@ -346,6 +346,12 @@ def _run_verify(ns) -> int:
     for problem in report.problems:
         print(f"  {problem}")
     return EXIT_OK if report.ok else EXIT_FAILED
+
+
+def _run_check(ns) -> int:
+    from .check import main_check  # its own report, bad-input lines and exit status
+
+    return main_check(ns.file, ns.rtol)
 
 
 def _sign_p_q(value) -> dict:

@@ -238,3 +238,19 @@ def test_full_device_is_one_line(tmp_path):
 def test_help_names_the_format(capsys):
     status, out, _ = _run(capsys, ["value", "--from", "-", "--help"])
     assert status == 0 and ",".join(CSV_COLUMNS) in out
+
+
+def test_interrupt_is_one_line(tmp_path):
+    import signal
+    import time
+
+    src = tmp_path / "in.txt"
+    src.write_text("".join(f"6j {j} {j} {j} {j} {j} {j}\n" for j in range(1, 9)) * 100_000)
+    env = dict(os.environ, PYTHONPATH=str(ROOT))
+    with subprocess.Popen([sys.executable, "-m", "tablegen", "value", "--from", str(src)], env=env,
+                          stdout=subprocess.DEVNULL, stderr=subprocess.PIPE) as proc:
+        time.sleep(0.5)
+        proc.send_signal(signal.SIGINT)
+        err = proc.stderr.read().decode()
+        assert proc.wait(timeout=60) == 130
+    assert err.splitlines() == ["tablegen: interrupted"]
