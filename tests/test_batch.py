@@ -254,3 +254,18 @@ def test_interrupt_is_one_line(tmp_path):
         err = proc.stderr.read().decode()
         assert proc.wait(timeout=60) == 130
     assert err.splitlines() == ["tablegen: interrupted"]
+
+
+def test_batch_path_stays_light(tmp_path):
+    # a batch of values needs neither sympy, jinja2 nor mpmath (common practice, no source: start-up cost)
+    src = tmp_path / "in.txt"
+    src.write_text("\n".join(LINES) + "\n")
+    code = (
+        "import sys\nfrom tablegen import cli\nstatus = cli.main(['value', '--from', sys.argv[1]])\n"
+        "heavy = sorted({m.split('.')[0] for m in sys.modules} & {'sympy', 'jinja2', 'mpmath'})\n"
+        "print(status, heavy, file=sys.stderr)\n"
+    )
+    proc = subprocess.run([sys.executable, "-c", code, str(src)], env=dict(os.environ, PYTHONPATH=str(ROOT)),
+                          capture_output=True, text=True, timeout=60)
+    assert proc.stderr.strip().splitlines()[-1] == "0 []"
+    assert len(proc.stdout.splitlines()) == len(LINES) + 1
