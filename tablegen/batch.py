@@ -36,7 +36,6 @@ CSV_COLUMNS = ("line", "kind", "arguments", "exact", "latex", "decimal", "zero_r
 #: Largest number of entries each cache of this module keeps (then it starts afresh).
 CACHE_ENTRIES = 1 << 16
 
-_ZERO_TEXTS = ("0", "0", "0")
 
 USAGE = """usage: tablegen value --from FILE [--json] [--digits N] [--max-j N]
 
@@ -88,36 +87,29 @@ class Answerer:
             raise BadLine(f"kind = {key!r}: must be one of {', '.join(KIND_KEYS)}")
         if len(args) != len(k.arguments):
             raise BadLine(f"{key} needs {len(k.arguments)} arguments ({' '.join(k.arguments)}), got {len(args)}")
-        t = self._parse(k, args)
-        value = k.doubled(*t)
-        sign = value.sign
-        if sign:
-            texts = self._value_texts(value)
-            if sign < 0:
-                texts = ("-" + texts[0], "-" + texts[1], "-" + texts[2])
-            rule = ""
-        else:
-            texts = _ZERO_TEXTS
-            rule = str(k.zero_rule(t))
-        canonical = self._canonical
-        return (key, " ".join([canonical[a] for a in args]), *texts, rule)
-
-    def _parse(self, k, args: list[str]) -> tuple[int, ...]:
-        """Doubled arguments through the kind's own parser (its rules and messages)."""
         known = self._tokens
+        try:  # every token seen before: the parser's int/Fraction fast path
+            t = k.parse([known[a] for a in args], self.max_j)
+        except (KeyError, TablegenError, TypeError, ValueError):
+            t = self._parse_text(k, args)
+        value = k.doubled(*t)
+        canonical = self._canonical
+        arguments = " ".join([canonical[a] for a in args])
+        sign = value.sign
+        if not sign:
+            return (key, arguments, "0", "0", "0", str(k.zero_rule(t)))
+        exact, latex, decimal = self._value_texts(value)
+        if sign < 0:
+            return (key, arguments, "-" + exact, "-" + latex, "-" + decimal, "")
+        return (key, arguments, exact, latex, decimal, "")
+
+    def _parse_text(self, k, args: list[str]) -> tuple[int, ...]:
+        """Doubled arguments read from the text by the kind's own parser (its rules and messages)."""
         try:
-            values = [known[a] for a in args]
-        except KeyError:
-            values = None
-        if values is not None:  # every token seen before: the parser's int/Fraction fast path
-            try:
-                return k.parse(values, self.max_j)
-            except (TablegenError, TypeError, ValueError):
-                pass  # read the text again below, so that the message shows it as written
-        try:
-            t = k.parse(args, self.max_j)  # reads the text, names the argument of any mistake
+            t = k.parse(args, self.max_j)
         except (TablegenError, TypeError, ValueError) as exc:
             raise BadLine(str(exc)) from None
+        known = self._tokens
         if len(known) >= CACHE_ENTRIES:
             known.clear()
             self._canonical.clear()
