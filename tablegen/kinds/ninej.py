@@ -74,11 +74,12 @@ def _ninej_square(*t: int) -> tuple[int, int, int]:
             (tj12, tj22, tj32, tj21, x, tj23),
             (tj13, tj23, tj33, x, tj11, tj12),
         ):
-            sign, num, up, down = sixj_racah_sum(*sixj_invariants(*args))
-            if not num:
+            al, be = sixj_invariants(*args)
+            rn, rd = _racah_part_cached(al, be) if be[2] <= _CACHE_MAX_TJ else _racah_part(al, be)
+            if not rn:
                 break
-            n *= sign * num * _product(F, up)
-            d *= _product(F, down)
+            n *= rn
+            d *= rd
         else:
             if x & 1:
                 n = -n
@@ -95,6 +96,20 @@ def _ninej_square(*t: int) -> tuple[int, int, int]:
     p, q = pre_n * total_n * total_n, pre_d * total_d * total_d
     r = gcd(p, q)
     return (1 if total_n > 0 else -1), p // r, q // r
+
+
+def _racah_part(al: tuple[int, ...], be: tuple[int, ...]) -> tuple[int, int]:
+    """A 6j over its four triangle factors, as (numerator, denominator): its Racah sum with the factorials.
+
+    Keyed by the 6j's invariants, so all 144 forms of one 6j share an entry:
+    the 6j's inside the sums of a file of 9j symbols repeat often.
+    """
+    sign, num, up, down = sixj_racah_sum(al, be)
+    F = factorials_upto(be[2] + 1)  # kmin + 1 <= min(beta) + 1 and every down term <= max(beta)
+    return sign * num * _product(F, up), _product(F, down)
+
+
+_racah_part_cached = lru_cache(maxsize=CACHE_ENTRIES)(_racah_part)
 
 
 def _product(F: list[int], args: list[int]) -> int:

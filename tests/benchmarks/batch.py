@@ -50,6 +50,7 @@ def clear_caches() -> None:
     k3._threej_square_cached.cache_clear()
     k6._sixj_value_cached.cache_clear()
     k9._ninej_square.cache_clear()
+    k9._racah_part_cached.cache_clear()
 
 
 # -- random symbols (doubled arguments) ------------------------------------------------------
