@@ -45,12 +45,18 @@ def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
         return "0"
     # first guess of the decimal exponent from the integers' lengths; the exact
     # check below corrects it by one either way if needed
-    e10 = (len(int_text(p)) - len(int_text(q))) // 2 if max(p, q) < _FAST_LEN else _log10_guess(p, q)
-    low2, high2 = _pow10(2 * digits - 2), _pow10(2 * digits)  # 10**(digits-1) and 10**digits, squared
+    e10 = (len(str(p)) - len(str(q))) // 2 if p < _FAST_LEN and q < _FAST_LEN else _log10_guess(p, q)
+    pow10 = _POW10
+    top = len(pow10)
+    low2 = pow10[2 * digits - 2] if 2 * digits < top else 10 ** (2 * digits - 2)  # 10**(digits-1), squared
+    high2 = low2 * 100  # 10**digits, squared
     # settle the exponent exactly: low <= sqrt(p/q) * 10**s < high, s = digits-1-e10
     for _ in range(8):
-        s = digits - 1 - e10
-        num, den = (p * _pow10(2 * s), q) if s >= 0 else (p, q * _pow10(-2 * s))
+        s2 = 2 * (digits - 1 - e10)
+        if s2 >= 0:
+            num, den = p * (pow10[s2] if s2 < top else 10**s2), q
+        else:
+            num, den = p, q * (pow10[-s2] if -s2 < top else 10**-s2)
         if num >= high2 * den:
             e10 += 1
         elif num < low2 * den:
@@ -58,24 +64,18 @@ def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
         else:
             break
     else:  # pragma: no cover - the guess is never that far off
-        s = digits - 1 - e10
-        num, den = (p * _pow10(2 * s), q) if s >= 0 else (p, q * _pow10(-2 * s))
+        raise ArithmeticError("decimal exponent did not settle")
     a = isqrt(num // den)  # floor(sqrt(num/den)), since isqrt(floor(x)) = floor(sqrt(x))
     # round half to even, decided exactly: sqrt(num/den) against a + 1/2
     lhs, mid = 4 * num, (2 * a + 1) ** 2 * den
     if lhs > mid or (lhs == mid and a & 1):
         a += 1
-        if a == _pow10(digits):  # rounding carried into the next power of ten
-            a, e10 = _pow10(digits - 1), e10 + 1
+        if a * a == high2:  # rounding carried into the next power of ten
+            a, e10 = a // 10, e10 + 1
     return _format(sign, int_text(a), e10)
 
 
-def _pow10(n: int) -> int:
-    """10**n, from a small table for the exponents decimals use most."""
-    return _POW10[n] if n < len(_POW10) else 10**n
-
-
-_POW10 = [10**k for k in range(128)]
+_POW10 = [10**k for k in range(256)]
 
 
 def surd_float(sign: int, p: int, q: int) -> float:
