@@ -289,7 +289,7 @@ def main_check(path: str, rtol_text: "str | None" = None, stdout=None, stderr=No
         print(f"tablegen check: {exc}", file=err)
         return 2
     try:
-        stream = sys.stdin if path == "-" else open(path, encoding="utf-8", newline="")  # noqa: SIM115
+        stream = sys.stdin if path == "-" else open(path, encoding="utf-8-sig", newline="")  # noqa: SIM115 (a spreadsheet may add a BOM)
     except OSError as exc:
         print(f"tablegen check: argument FILE = {path!r}: cannot read: {exc.strerror or exc}", file=err)
         return 2

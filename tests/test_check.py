@@ -241,3 +241,11 @@ def test_read_float():
     for bad in ("1_0", "0x10", "", "1.2.3", "abc"):
         with pytest.raises(BadRow):
             read_float(bad)
+
+
+def test_spreadsheet_export_with_bom_and_crlf(tmp_path, capsys):
+    path = tmp_path / "sheet.csv"
+    value = _float(wigner_3j(2, 2, 2, 1, -1, 0))  # sympy.physics.wigner as a float
+    path.write_bytes(("\ufeffKind,Arguments,Value\r\n3j,2 2 2 1 -1 0," + repr(value) + "\r\n").encode())
+    assert cli.main(["check", str(path)]) == 0
+    assert "1 value, 1 agree" in capsys.readouterr()[0]
