@@ -289,7 +289,8 @@ def main_check(path: str, rtol_text: "str | None" = None, stdout=None, stderr=No
         print(f"tablegen check: {exc}", file=err)
         return 2
     try:
-        stream = sys.stdin if path == "-" else open(path, encoding="utf-8-sig", newline="")  # noqa: SIM115 (a spreadsheet may add a BOM)
+        # utf-8-sig: a spreadsheet's export may start with a byte-order mark
+        stream = sys.stdin if path == "-" else open(path, encoding="utf-8-sig", newline="")  # noqa: SIM115
     except OSError as exc:
         print(f"tablegen check: argument FILE = {path!r}: cannot read: {exc.strerror or exc}", file=err)
         return 2
