@@ -62,6 +62,8 @@ def _build_parser():
     value.add_argument("--latex", action="store_true", help="also print the LaTeX (both root styles)")
     value.add_argument("--json", action="store_true", help="print one JSON object instead of text")
     value.add_argument("--max-j", type=int, default=None, help="raise the size limit on j")
+    value.add_argument("--from", metavar="FILE", help="answer every line 'KIND ARG...' of FILE ('-': stdin) "
+                       "as CSV, or JSON lines with --json (see 'tablegen value --from - --help')")
 
     build = sub.add_parser(
         "build",
@@ -99,6 +101,18 @@ def _build_parser():
 
     for name, summary in SUMMARIES:
         sub.add_parser(name, help=summary, add_help=False)
+
+    check = sub.add_parser(
+        "check",
+        help="compare another program's floating-point values with the exact ones",
+        description="Read a CSV with columns kind, value and either arguments (space-separated) or "
+        "arg1..arg9, and report per kind how many values agree to a relative tolerance, the largest "
+        "error in ulps, and every row with a wrong sign, a wrong selection-rule zero or a larger error. "
+        "Exit status 0 all agree, 1 some disagree, 2 bad input.",
+    )
+    check.add_argument("file", metavar="FILE", help="the CSV file ('-': stdin)")
+    check.add_argument("--rtol", metavar="X", help="relative tolerance (default 1e-12)")
+    check.set_defaults(run=_run_check)
     return parser
 
 
@@ -163,6 +177,10 @@ def main(argv: list[str] | None = None) -> int:
         command = _extra_command(argv)  # rotation functions, recouple, lsjj: tablegen/commands/
         if command is not None:
             return command()
+        if argv[:1] == ["value"] and any(a == "--from" or a.startswith("--from=") for a in argv):
+            from .batch import main_from  # batch answers: own options, own error lines
+
+            return main_from(argv[1:])
         quick = _quick_value_call(argv)
         if quick is not None:
             return _run_value(quick)
@@ -221,7 +239,7 @@ def _run_value(ns) -> int:
             "arguments": dict(zip(names, (_half(x) for x in t))),
             "symbol": symbol,
             "exact": exact,
-            "square": str(value.squared()),
+            **_sign_p_q(value),
             "decimal": decimal,
             "digits": ns.digits,
             "zero_rule": zero_rule,
@@ -342,6 +360,19 @@ def _run_verify(ns) -> int:
     for problem in report.problems:
         print(f"  {problem}")
     return EXIT_OK if report.ok else EXIT_FAILED
+
+
+def _run_check(ns) -> int:
+    from .check import main_check  # its own report, bad-input lines and exit status
+
+    return main_check(ns.file, ns.rtol)
+
+
+def _sign_p_q(value) -> dict:
+    """value = sign * sqrt(p/q): p and q as decimal text (they may exceed 2**53)."""
+    from .intmath import int_text
+
+    return {"sign": value.sign, "p": int_text(value.p), "q": int_text(value.q)}
 
 
 def _half(t: int) -> str:

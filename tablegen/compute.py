@@ -19,7 +19,7 @@ from .kinds import kind
 from .plan import SitePlan
 from .values import Surd
 
-__all__ = ["Shown", "ValueBook", "compute_values", "wanted_keys", "show"]
+__all__ = ["Shown", "ValueBook", "compute_values", "wanted_keys", "show", "signed_square_text"]
 
 #: Below this many values one process is faster than starting a pool.
 PARALLEL_THRESHOLD = 8_000
@@ -45,6 +45,21 @@ class Shown:
 ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
 
 
+def signed_square_text(value: Surd) -> str:
+    """The data files' "square" column today: sign * p/q as one fraction text.
+
+    The one place that still writes it (for the site's CSV/JSON and verify);
+    to be replaced by explicit sign, p and q columns when the site's data
+    format changes.  Surd.squared() is the true square, p/q >= 0.
+    """
+    from .intmath import int_text
+
+    if not value.sign:
+        return "0"
+    text = f"{int_text(value.p)}/{int_text(value.q)}" if value.q != 1 else int_text(value.p)
+    return f"-{text}" if value.sign < 0 else text
+
+
 def show(value: Surd, digits: int, style: str) -> Shown:
     """All text forms of one value.
 
@@ -57,7 +72,7 @@ def show(value: Surd, digits: int, style: str) -> Shown:
     return Shown(
         value=value,
         exact=str(value),
-        square=str(squared()) if squared else "",
+        square=signed_square_text(value) if squared else "",
         decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
     )

@@ -15,6 +15,7 @@ from dataclasses import dataclass, field
 from pathlib import Path, PurePosixPath
 
 from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments
+from .compute import signed_square_text
 from .errors import OutputError, TablegenError
 from .notation import symbol_text
 from .output import MANIFEST, SUMS, sha256_hex
@@ -68,8 +69,8 @@ def _check_value(report: Report, engine: _Engine, where: str, family: str, args,
     name = symbol_text(family, t)
     if exact is not None and exact != str(value):
         report.problems.append(f"{where}: {name}: exact {exact!r}, but the engine gives {str(value)!r}")
-    if square is not None and square != str(value.squared()):
-        report.problems.append(f"{where}: {name}: square {square!r}, but the engine gives {str(value.squared())!r}")
+    if square is not None and square != signed_square_text(value):
+        report.problems.append(f"{where}: {name}: square {square!r}, but the engine gives {signed_square_text(value)!r}")
     if decimal is not None and engine.digits is not None:
         want = value.decimal(engine.digits)
         if decimal != want:

@@ -221,7 +221,7 @@ def test_coupled_states_reproduce_cg(tj1, tj2):
                 x = state.get((a1, a2), Fraction(0))
                 expected = x * x * space.metric(a1, a2) / norm * (1 if x >= 0 else -1)
                 got = cg(Fraction(tj1, 2), Fraction(tm1, 2), Fraction(tj2, 2), Fraction(tm2, 2), J, Fraction(tM, 2))
-                assert got.squared() == expected, (tj1, tm1, tj2, tm2, tJ, tM, got, expected)
+                assert got.sign * got.squared() == expected, (tj1, tm1, tj2, tm2, tJ, tM, got, expected)
                 compared += 1
     # every (m1, m2) is compared once for each J reaching M = m1 + m2
     per_m = [0] * (tj1 + tj2 + 1)

@@ -120,7 +120,7 @@ def test_latex_option(capsys):
     assert status == 0 and reference != 0
     latex = [line.split("latex", 1)[1].strip() for line in out.splitlines() if line.strip().startswith("latex")]
     assert len(latex) == 2 and latex[1].endswith("(rationalised)")
-    value = Surd.from_signed_square(Fraction(str(sympy.sign(reference) * reference**2)))
+    value = Surd.from_square(Fraction(str(reference**2)), int(sympy.sign(reference)))
     assert latex[0] == value.latex("root")
     assert latex[1].replace("(rationalised)", "").strip() == value.latex("rational")
     # the Surd's LaTeX itself is checked against sympy in test_surd.py
@@ -135,7 +135,10 @@ def test_json_option(capsys):
     reference = wigner_6j(R(5, 2), 2, R(1, 2), 1, R(3, 2), 2)
     assert record["kind"] == "6j"
     assert sympy.sympify(record["exact"]) == reference
-    assert sympy.Rational(record["square"]) == sympy.sign(reference) * reference**2
+    # value = sign * sqrt(p/q), against sympy.physics.wigner's exact 6j
+    assert record["sign"] == sympy.sign(reference) != 0
+    assert sympy.Rational(int(record["p"]), int(record["q"])) == reference**2
+    assert "square" not in record
     assert record["zero_rule"] is None
     assert record["digits"] == 30
     assert len(record["decimal"].lstrip("-").replace(".", "").lstrip("0")) == 30
@@ -147,7 +150,8 @@ def test_json_with_latex_and_zero(capsys):
     status, out, _ = _run(capsys, ["value", "--json", "--latex", "cg", "1", "0", "1", "0", "1", "0"])
     assert status == 0
     record = json.loads(out)
-    assert record["exact"] == "0" and record["square"] == "0" and record["decimal"] == "0"
+    assert record["exact"] == "0" and record["decimal"] == "0"
+    assert (record["sign"], record["p"], record["q"]) == (0, "0", "1")
     assert record["zero_rule"].startswith("parity:")
     assert record["latex"] == {"root": "0", "rational": "0"}
 

@@ -23,7 +23,7 @@ import sympy
 from sympy import Rational, sqrt
 from sympy.physics import wigner
 
-from tablegen import cg, ninej, racah_w, sixj, threej, why_zero
+from tablegen import Surd, cg, ninej, racah_w, sixj, threej, why_zero
 from tablegen.coefficients import cg2, ninej2, racah_w2, sixj2, threej2, why_zero_doubled
 
 HALF = Rational(1, 2)
@@ -37,11 +37,11 @@ def h(t: int) -> Rational:
     return Rational(t, 2)
 
 
-def signed_square(x) -> Fraction:
-    """sign(x) * x**2 of a sympy number r * sqrt(s) (r, s rational, s > 0)."""
+def as_surd(x) -> Surd:
+    """The Surd equal to a sympy number r * sqrt(s) (r, s rational, s > 0), read structurally."""
     x = sympy.sympify(x)
     if x == 0:
-        return Fraction(0)
+        return Surd()
     # structural reading, no assumption queries (they dominate the run time)
     coeff, rest = x.as_coeff_Mul()
     if rest == 1:
@@ -50,7 +50,7 @@ def signed_square(x) -> Fraction:
         assert rest.is_Pow and rest.exp == HALF and rest.base.is_Rational and rest.base > 0, x
         radicand = rest.base
     square = coeff * coeff * radicand
-    return Fraction(int(square.p), int(square.q)) * (1 if coeff > 0 else -1)
+    return Surd.from_square(Fraction(int(square.p), int(square.q)), 1 if coeff > 0 else -1)
 
 
 def triad_ok(ta: int, tb: int, tc: int) -> bool:
@@ -109,9 +109,9 @@ def test_cg_and_threej_match_sympy_for_all_j_up_to_3(tj1):
                 got_3j = threej2(tj1, tj2, tj3, tm1, tm2, -tm3)
                 compared += 1
                 nonzero += bool(got_cg)
-                if got_cg.to_sympy() != ref_cg or got_cg.squared() != signed_square(ref_cg):
+                if got_cg.to_sympy() != ref_cg or got_cg != as_surd(ref_cg):
                     bad.append(("cg", tj1, tm1, tj2, tm2, tj3, tm3, got_cg, ref_cg))
-                if got_3j.to_sympy() != ref_3j or got_3j.squared() != signed_square(ref_3j):
+                if got_3j.to_sympy() != ref_3j or got_3j != as_surd(ref_3j):
                     bad.append(("3j", tj1, tj2, tj3, tm1, tm2, -tm3, got_3j, ref_3j))
     assert not bad, mismatches_report(bad)
     # 28 * 7 (j2, j3, m2 combinations) * (2 j1 + 1) symbols; a good part non-zero
@@ -130,7 +130,7 @@ def test_every_sixj_up_to_3_matches_sympy():
             continue
         allowed += 1
         ref = wigner.wigner_6j(*map(h, t))
-        if got.squared() != signed_square(ref):
+        if got != as_surd(ref):
             bad.append((t, got, ref))
     assert not bad, mismatches_report(bad)
     assert allowed == 3418  # every allowed 6j with j <= 3 was compared
@@ -149,7 +149,7 @@ def test_every_racah_w_up_to_2_matches_sympy():
         allowed += 1
         ref = wigner.racah(h(a), h(b), h(c), h(d), h(e), h(f))
         # the public function (sympy Rational arguments) gives the same value
-        if got.squared() != signed_square(ref) or racah_w(h(a), h(b), h(c), h(d), h(e), h(f)) != got:
+        if got != as_surd(ref) or racah_w(h(a), h(b), h(c), h(d), h(e), h(f)) != got:
             bad.append(((a, b, c, d, e, f), got, ref))
     assert not bad, mismatches_report(bad)
     assert allowed > 500
@@ -167,7 +167,7 @@ def test_every_ninej_up_to_1_matches_sympy():
         allowed += 1
         ref = wigner.wigner_9j(*map(h, t))
         # the public function (sympy Rational arguments) gives the same value
-        if got.squared() != signed_square(ref) or ninej(*map(h, t)) != got:
+        if got != as_surd(ref) or ninej(*map(h, t)) != got:
             bad.append((t, got, ref))
     assert not bad, mismatches_report(bad)
     assert allowed == 215  # every allowed 9j with j <= 1 was compared
@@ -220,10 +220,10 @@ def test_random_cg_and_threej_up_to_60_match_sympy():
         tj1, tm1, tj2, tm2, tJ, tM = random_cg_args(rng)
         got = cg2(tj1, tm1, tj2, tm2, tJ, tM)
         ref = wigner.clebsch_gordan(h(tj1), h(tj2), h(tJ), h(tm1), h(tm2), h(tM))
-        assert got.squared() == signed_square(ref), (tj1, tm1, tj2, tm2, tJ, tM)
+        assert got == as_surd(ref), (tj1, tm1, tj2, tm2, tJ, tM)
         got = threej2(tj1, tj2, tJ, tm1, tm2, -tM)
         ref = wigner.wigner_3j(h(tj1), h(tj2), h(tJ), h(tm1), h(tm2), h(-tM))
-        assert got.squared() == signed_square(ref), (tj1, tj2, tJ, tm1, tm2, -tM)
+        assert got == as_surd(ref), (tj1, tj2, tJ, tm1, tm2, -tM)
         nonzero += bool(got)
     assert nonzero >= 35
 
@@ -236,11 +236,11 @@ def test_random_sixj_and_w_up_to_60_match_sympy():
         a, b, c, d, e, f = random_sixj_args(rng)
         got = sixj2(a, b, c, d, e, f)
         ref = wigner.wigner_6j(h(a), h(b), h(c), h(d), h(e), h(f))
-        assert got.squared() == signed_square(ref), (a, b, c, d, e, f)
+        assert got == as_surd(ref), (a, b, c, d, e, f)
         # the same six numbers as W(a b e d; c f), whose triads are those of the 6j
         got = racah_w2(a, b, e, d, c, f)
         ref = wigner.racah(h(a), h(b), h(e), h(d), h(c), h(f))
-        assert got.squared() == signed_square(ref), ("W", a, b, e, d, c, f)
+        assert got == as_surd(ref), ("W", a, b, e, d, c, f)
         nonzero += bool(got)
     assert nonzero >= 35
 
@@ -255,7 +255,7 @@ def test_random_ninej_match_sympy():
     for t in samples:
         got = ninej2(*t)
         ref = wigner.wigner_9j(*map(h, t))
-        assert got.squared() == signed_square(ref), t
+        assert got == as_surd(ref), t
         nonzero += bool(got)
     assert nonzero >= 20
 
@@ -271,12 +271,12 @@ def test_large_arguments_match_sympy():
     for t in cases_3j:
         got = threej2(*t)
         assert got, t
-        assert got.squared() == signed_square(wigner.wigner_3j(*map(h, t))), t
+        assert got == as_surd(wigner.wigner_3j(*map(h, t))), t
     cases_6j = [(300, 280, 260, 290, 270, 250), (401, 399, 200, 351, 349, 250)]
     for t in cases_6j:
         got = sixj2(*t)
         assert got, t
-        assert got.squared() == signed_square(wigner.wigner_6j(*map(h, t))), t
+        assert got == as_surd(wigner.wigner_6j(*map(h, t))), t
 
 
 # ---------------------------------------------------------------------------
@@ -339,7 +339,7 @@ def test_cg_with_j2_one_half_matches_closed_form():
                     tm1 = tM - tm2
                     ref = cg_half_table(j1, h(tM), h(tm2), h(tJ)) if abs(tm1) <= tj1 else 0
                     got = cg(j1, h(tm1), HALF, h(tm2), h(tJ), h(tM))
-                    assert got.squared() == signed_square(ref), (j1, h(tm1), h(tm2), h(tJ), h(tM))
+                    assert got == as_surd(ref), (j1, h(tm1), h(tm2), h(tJ), h(tM))
                     count += 1
     assert count > 3000
 
@@ -357,7 +357,7 @@ def test_cg_with_j2_one_matches_closed_form():
                     tm1 = tM - 2 * m2
                     ref = cg_one_table(j1, h(tM), m2, h(tJ)) if abs(tm1) <= tj1 else 0
                     got = cg(j1, h(tm1), 1, m2, h(tJ), h(tM))
-                    assert got.squared() == signed_square(ref), (j1, h(tm1), m2, h(tJ), h(tM))
+                    assert got == as_surd(ref), (j1, h(tm1), m2, h(tJ), h(tM))
                     count += 1
     assert count > 7000
 
@@ -370,7 +370,7 @@ def test_threej_with_j3_zero_matches_closed_form():
         for tm in projections(tj):
             m = h(tm)
             ref = (-1) ** (j - m) / sqrt(2 * j + 1)
-            assert threej(j, j, 0, m, -m, 0).squared() == signed_square(ref), (j, m)
+            assert threej(j, j, 0, m, -m, 0) == as_surd(ref), (j, m)
             assert not threej(j, j + 1, 0, m, -m, 0)
             if tj:
                 assert not threej(j, j, 0, m, 1 - m, 0)
@@ -408,7 +408,7 @@ def test_threej_with_j3_one_matches_closed_form():
                     continue
                 ref = threej_one_table(j, m, kind)
                 got = threej(ja, jb, 1, ma, mb, mu)
-                assert got.squared() == signed_square(ref), (kind, j, m)
+                assert got == as_surd(ref), (kind, j, m)
                 count += 1
     assert count > 3000
 
@@ -427,7 +427,7 @@ def test_threej_with_all_m_zero_matches_closed_form():
                 ref = (-1) ** g * sqrt(f(big - 2 * j1) * f(big - 2 * j2) * f(big - 2 * j3) / f(big + 1)) * f(g) / (
                     f(g - j1) * f(g - j2) * f(g - j3)
                 )
-            assert threej(j1, j2, j3, 0, 0, 0).squared() == signed_square(ref), (j1, j2, j3)
+            assert threej(j1, j2, j3, 0, 0, 0) == as_surd(ref), (j1, j2, j3)
 
 
 def test_large_j_closed_forms():
@@ -435,10 +435,10 @@ def test_large_j_closed_forms():
     # CG-3j relation DLMF 34.1.1; (j1 j2 j3; 0 0 0) from DLMF 34.3.5 at large j
     for j in (50, 60, 100, 250):
         ref = (-1) ** j / sqrt(2 * j + 1)
-        assert cg(j, 0, j, 0, 0, 0).squared() == signed_square(ref), j
+        assert cg(j, 0, j, 0, 0, 0) == as_surd(ref), j
         for m in (1, 17, j):
             ref = (-1) ** (j - m) / sqrt(2 * j + 1)
-            assert cg(j, m, j, -m, 0, 0).squared() == signed_square(ref), (j, m)
+            assert cg(j, m, j, -m, 0, 0) == as_surd(ref), (j, m)
     f = sympy.factorial
     for j1, j2, j3 in ((100, 120, 80), (150, 160, 170), (300, 200, 250)):
         g = (j1 + j2 + j3) // 2
@@ -446,7 +446,7 @@ def test_large_j_closed_forms():
         ref = (-1) ** g * sqrt(f(big - 2 * j1) * f(big - 2 * j2) * f(big - 2 * j3) / f(big + 1)) * f(g) / (
             f(g - j1) * f(g - j2) * f(g - j3)
         )
-        assert threej(j1, j2, j3, 0, 0, 0).squared() == signed_square(ref), (j1, j2, j3)
+        assert threej(j1, j2, j3, 0, 0, 0) == as_surd(ref), (j1, j2, j3)
 
 
 def test_sixj_with_a_zero_matches_closed_form():
@@ -461,9 +461,9 @@ def test_sixj_with_a_zero_matches_closed_form():
         for t1 in allowed[:: 1 + len(allowed) // 10]:
             j1 = h(t1)
             ref = (-1) ** (j1 + j2 + j3) / sqrt((2 * j2 + 1) * (2 * j3 + 1))
-            assert sixj(j1, j2, j3, 0, j3, j2).squared() == signed_square(ref), (j1, j2, j3)
+            assert sixj(j1, j2, j3, 0, j3, j2) == as_surd(ref), (j1, j2, j3)
             # the zero moved to the last place: {j3 j2 j1; j2 j3 0} (columns swapped)
-            assert sixj(j3, j2, j1, j2, j3, 0).squared() == signed_square(ref), (j1, j2, j3)
+            assert sixj(j3, j2, j1, j2, j3, 0) == as_surd(ref), (j1, j2, j3)
             count += 1
     assert count > 8000
     for a, b, c, d, e in itertools.product(range(7), repeat=5):
@@ -500,7 +500,7 @@ def test_ninej_with_a_zero_reduces_to_sixj():
             for t31 in range(abs(t11 - t21), t11 + t21 + 1, 2):
                 got = ninej2(t11, t12, t13, t21, t22, t13, t31, t31, 0)
                 ref = ninej_zero_reference(t11, t12, t13, t21, t22, t31)
-                assert got.squared() == signed_square(ref), (t11, t12, t13, t21, t22, t31)
+                assert got == as_surd(ref), (t11, t12, t13, t21, t22, t31)
                 count += bool(got)
     assert count > 500
     # ... and seeded random ones with j up to 20
@@ -513,7 +513,7 @@ def test_ninej_with_a_zero_reduces_to_sixj():
         if ref == 0 or max(t13, t31) > 40:
             continue
         got = ninej2(t11, t12, t13, t21, t22, t13, t31, t31, 0)
-        assert got.squared() == signed_square(ref), (t11, t12, t13, t21, t22, t31)
+        assert got == as_surd(ref), (t11, t12, t13, t21, t22, t31)
         count += 1
 
 

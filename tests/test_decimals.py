@@ -210,8 +210,8 @@ def test_exact_ties_round_half_to_even():
     ],
 )
 def test_examples(square, digits, text):
-    assert Surd.from_signed_square(square).decimal(digits) == text
-    assert Surd.from_signed_square(-square).decimal(digits) == "-" + text
+    assert Surd.from_square(square).decimal(digits) == text
+    assert Surd.from_square(square, -1).decimal(digits) == "-" + text
 
 
 def test_powers_of_ten_and_the_notation_switch():

@@ -63,8 +63,8 @@ def _square(nodes: list[ET.Element]) -> Fraction:
     return total
 
 
-def value_of(markup: str) -> Fraction:
-    """The signed square of the number a value's <math> shows."""
+def value_of(markup: str) -> Surd:
+    """The number a value's <math> shows, read back as a Surd."""
     children = list(_tree(markup))
     sign = 1
     if children and children[0].tag == "mo":
@@ -73,8 +73,8 @@ def value_of(markup: str) -> Fraction:
         children = children[1:]
     assert children, "a value needs a number"
     if len(children) == 1 and children[0].tag == "mn" and children[0].text == "0":
-        return Fraction(0)
-    return sign * _square(children)
+        return Surd()
+    return Surd.from_square(_square(children), sign)
 
 
 def _all_values():
@@ -104,7 +104,7 @@ def test_value_mathml_reads_back_as_the_exact_value(style):
     for family, key, value in _all_values():
         shown = show(value, 6, style)
         markup = mathml.value_mathml(shown)
-        assert value_of(markup) == value.squared(), (family, key, markup)
+        assert value_of(markup) == value, (family, key, markup)
         assert "<msqrt>" in markup or value.is_rational(), (family, key, markup)
         checked += 1
         nonzero += bool(value)
@@ -126,7 +126,7 @@ def test_surd_mathml_covers_hand_picked_values():
     assert mathml.surd_mathml(Surd(1, 5, 14), "rational") == (
         "<math><mfrac><msqrt><mn>70</mn></msqrt><mn>14</mn></mfrac></math>"
     )
-    assert value_of(mathml.surd_mathml(Surd(-1, 12, 1), "rational")) == -12  # −2√3
+    assert value_of(mathml.surd_mathml(Surd(-1, 12, 1), "rational")) == Surd(-1, 12, 1)  # −2√3
 
 
 def test_sample_agrees_with_sympy_wigner():
@@ -144,15 +144,15 @@ def test_sample_agrees_with_sympy_wigner():
     for key, ref in samples:
         markup = mathml.value_mathml(show(cg2(*key), 8, "root"))
         exact = ref(key)
-        assert value_of(markup) == Fraction(int((exact**2).p), int((exact**2).q)) * (1 if exact >= 0 else -1)
+        assert value_of(markup) == Surd.from_square(Fraction(int((exact**2).p), int((exact**2).q)), 1 if exact > 0 else -1)
     for key in [(2, 2, 2, 2, 2, 2), (4, 2, 2, 3, 3, 3), (3, 3, 2, 3, 3, 4)]:
         exact = wigner.wigner_6j(*(r(t) for t in key))
         markup = mathml.value_mathml(show(sixj2(*key), 8, "rational"))
-        assert value_of(markup) == Fraction(int((exact**2).p), int((exact**2).q)) * (1 if exact >= 0 else -1)
+        assert value_of(markup) == Surd.from_square(Fraction(int((exact**2).p), int((exact**2).q)), 1 if exact > 0 else -1)
     for key in [(2, 2, 2, 2, 2, 2, 2, 2, 0), (1, 1, 2, 1, 1, 2, 2, 2, 2)]:
         exact = wigner.wigner_9j(*(r(t) for t in key))
         markup = mathml.value_mathml(show(ninej2(*key), 8, "root"))
-        assert value_of(markup) == Fraction(int((exact**2).p), int((exact**2).q)) * (1 if exact >= 0 else -1)
+        assert value_of(markup) == Surd.from_square(Fraction(int((exact**2).p), int((exact**2).q)), 1 if exact > 0 else -1)
 
 
 def _mn_texts(markup: str) -> list[str]:
@@ -247,4 +247,4 @@ def test_rational_check_helper_is_strict():
         value_of("<math><mi>x</mi></math>")
     with pytest.raises(AssertionError):
         value_of("<math><mo>+</mo><mn>1</mn></math>")
-    assert value_of("<math><mn>2</mn><msqrt><mn>3</mn></msqrt></math>") == 12
+    assert value_of("<math><mn>2</mn><msqrt><mn>3</mn></msqrt></math>") == Surd(1, 12, 1)

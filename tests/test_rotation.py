@@ -44,9 +44,9 @@ def minus_i_jy(tj):
     K = [[Surd(0)] * n for _ in range(n)]
     for col, tm in enumerate(idx):
         if col > 0:  # J+ raises: row col-1
-            K[col - 1][col] = Surd.from_signed_square(F(tj * (tj + 2) - tm * (tm + 2), 4)) * F(-1, 2)
+            K[col - 1][col] = Surd.from_square(F(tj * (tj + 2) - tm * (tm + 2), 4)) * F(-1, 2)
         if col < n - 1:  # J- lowers: row col+1
-            K[col + 1][col] = Surd.from_signed_square(F(tj * (tj + 2) - tm * (tm - 2), 4)) * F(1, 2)
+            K[col + 1][col] = Surd.from_square(F(tj * (tj + 2) - tm * (tm - 2), 4)) * F(1, 2)
     return K
 
 

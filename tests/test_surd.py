@@ -129,8 +129,8 @@ def test_rational_values_random_against_fraction():
         f = Fraction(rng.randint(-10**6, 10**6), rng.randint(1, 10**6))
         s = Surd.from_rational(f)
         assert s == f and hash(s) == hash(f)
-        assert s.squared() == f * abs(f)
-        assert Surd.from_signed_square(f * abs(f)) == s
+        assert s.squared() == f * f and s.sign == (f > 0) - (f < 0)
+        assert Surd.from_square(f * f, s.sign) == s
         assert str(s) == str(f)
 
 
@@ -235,15 +235,18 @@ def test_unsupported_operand_types():
         a < "0.5"  # noqa: B015
 
 
-def test_squared_is_the_signed_square():
-    assert Surd(-1, 5, 14).squared() == Fraction(-5, 14)
+def test_squared_is_the_true_square_and_the_sign_is_apart():
+    assert Surd(-1, 5, 14).squared() == Fraction(5, 14) and Surd(-1, 5, 14).sign == -1
+    assert Surd().squared() == 0 and Surd().sign == 0
     rng = random.Random(10)
     for _ in range(500):
         a = _random_surd(rng)
-        r = _reference(a)
+        r = _reference(a)  # sympy's own number, the outside reference
         sq = a.squared()
-        assert isinstance(sq, Fraction)
-        assert sympy.Rational(sq.numerator, sq.denominator) == sympy.sign(r) * r**2
+        assert isinstance(sq, Fraction) and sq >= 0
+        assert sympy.Rational(sq.numerator, sq.denominator) == r**2
+        assert a.sign == sympy.sign(r)
+        assert Surd.from_square(sq, a.sign) == a
 
 
 def test_float_is_the_nearest_double():
@@ -322,7 +325,7 @@ def test_to_sympy():
         s = _random_surd(rng)
         r = s.to_sympy()
         assert r == _reference(s)
-        assert sympy.Rational(s.sign) * r**2 == sympy.Rational(s.squared().numerator, s.squared().denominator)
+        assert r**2 == sympy.Rational(s.squared().numerator, s.squared().denominator)
 
 
 # ---------------------------------------------------------------------------
@@ -456,14 +459,14 @@ def test_latex_rational_style_is_rationalised():
 
 
 # ---------------------------------------------------------------------------
-# prime form
+# prime exponents (the factorisation as data)
 # ---------------------------------------------------------------------------
-def test_prime_form_multiplies_back():
+def test_prime_exponents_multiply_back():
     rng = random.Random(18)
     for _ in range(800):
         s = _random_surd(rng, 10**8)
-        sign, items = s.prime_form()
-        assert sign == s.sign
+        exps = s.prime_exponents()
+        items = list(exps.items())
         primes = [pr for pr, _ in items]
         assert primes == sorted(set(primes))
         assert all(sympy.isprime(pr) and e != 0 for pr, e in items)
@@ -475,10 +478,17 @@ def test_prime_form_multiplies_back():
         expected = dict(sympy.factorint(s.p))
         for pr, e in sympy.factorint(s.q).items():
             expected[pr] = expected.get(pr, 0) - e
-        assert dict(items) == {int(k): v for k, v in expected.items() if v}
+        assert exps == {int(k): v for k, v in expected.items() if v}
 
 
-def test_prime_form_examples():
-    assert Surd(-1, 5, 14).prime_form() == (-1, ((2, -1), (5, 1), (7, -1)))
-    assert Surd(1, 1, 1).prime_form() == (1, ())
-    assert Surd().prime_form() == (0, ())
+def test_prime_exponents_examples():
+    # -sqrt(5/14) = -sqrt(2**-1 * 5 * 7**-1), worked by hand
+    assert Surd(-1, 5, 14).prime_exponents() == {2: -1, 5: 1, 7: -1}
+    assert list(Surd(1, 5 * 3, 2 * 7).prime_exponents()) == [2, 3, 5, 7]  # primes ascending
+    assert Surd(1, 1, 1).prime_exponents() == {}
+    assert Surd().prime_exponents() == {}
+
+
+def test_no_bracketed_prime_display():
+    # the factorisation is data only: no method renders it as text
+    assert not hasattr(Surd, "prime_form")

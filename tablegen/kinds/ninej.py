@@ -8,10 +8,10 @@ and the sum over x is a sum of rationals.
 
 from __future__ import annotations
 
-from fractions import Fraction
 from functools import lru_cache
+from math import gcd
 
-from ..intmath import factorial
+from ..intmath import factorials_upto
 from ..symmetry import ninej_members
 from ..triads import is_triad
 from ..values import Surd
@@ -28,23 +28,12 @@ _ZERO = Surd._trusted(0, 0, 1)
 _TRIADS = ((0, 1, 2), (3, 4, 5), (6, 7, 8), (0, 3, 6), (1, 4, 7), (2, 5, 8))
 
 
-def _delta_square(ta: int, tb: int, tc: int) -> Fraction:
-    return Fraction(
-        factorial((ta + tb - tc) >> 1) * factorial((ta - tb + tc) >> 1) * factorial((tb + tc - ta) >> 1),
-        factorial((ta + tb + tc + 2) >> 1),
+def _delta_square(ta: int, tb: int, tc: int, F: list[int]) -> tuple[int, int]:
+    """The triangle factor squared of a triad, as (numerator, denominator) factorial products."""
+    return (
+        F[(ta + tb - tc) >> 1] * F[(ta - tb + tc) >> 1] * F[(tb + tc - ta) >> 1],
+        F[(ta + tb + tc + 2) >> 1],
     )
-
-
-def _racah_rational(ta: int, tb: int, tc: int, td: int, te: int, tf: int) -> Fraction:
-    """The 6j divided by its four triangle factors: a rational number."""
-    sign, num, up, down = sixj_racah_sum(*sixj_invariants(ta, tb, tc, td, te, tf))
-    n = sign * num
-    for x in up:
-        n *= factorial(x)
-    d = 1
-    for x in down:
-        d *= factorial(x)
-    return Fraction(n, d)
 
 
 @lru_cache(maxsize=CACHE_ENTRIES)
@@ -63,33 +52,71 @@ def _ninej_square(*t: int) -> tuple[int, int, int]:
     (tj11 tj33 x), (tj32 tj21 x), (row 3); {tj12 tj22 tj32; tj21 x tj23} has
     (column 2), (tj12 x tj23), (row 2), (tj21 x tj32); {tj13 tj23 tj33; x tj11
     tj12} has (column 3), (row 1), (x tj23 tj12), (x tj11 tj33).
+
+    Each term is an integer over a product of factorials; the sum is kept as
+    one integer fraction over the least common denominator so far (no
+    Fraction objects on this path), reduced once at the end.
     """
     tj11, tj12, tj13, tj21, tj22, tj23, tj31, tj32, tj33 = t
     lo = max(abs(tj11 - tj33), abs(tj21 - tj32), abs(tj12 - tj23))
     hi = min(tj11 + tj33, tj21 + tj32, tj12 + tj23)
-    total = Fraction(0)
+    # every factorial argument below is at most a quadrangle sum + 1 <= 2 * (largest doubled j) + 1
+    F = factorials_upto(2 * max(max(t), hi) + 2)
+    total_n, total_d = 0, 1
     for x in range(lo, hi + 1, 2):
-        term = (
-            _delta_square(tj11, tj33, x)
-            * _delta_square(tj21, tj32, x)
-            * _delta_square(tj12, tj23, x)
-            * _racah_rational(tj11, tj21, tj31, tj32, tj33, x)
-            * _racah_rational(tj12, tj22, tj32, tj21, x, tj23)
-            * _racah_rational(tj13, tj23, tj33, x, tj11, tj12)
-        )
-        total += -(x + 1) * term if x & 1 else (x + 1) * term
-    if not total:
+        n, d = x + 1, 1
+        for ta, tb in ((tj11, tj33), (tj21, tj32), (tj12, tj23)):
+            dn, dd = _delta_square(ta, tb, x, F)
+            n *= dn
+            d *= dd
+        for args in (
+            (tj11, tj21, tj31, tj32, tj33, x),
+            (tj12, tj22, tj32, tj21, x, tj23),
+            (tj13, tj23, tj33, x, tj11, tj12),
+        ):
+            al, be = sixj_invariants(*args)
+            rn, rd = _racah_part_cached(al, be) if be[2] <= _CACHE_MAX_TJ else _racah_part(al, be)
+            if not rn:
+                break
+            n *= rn
+            d *= rd
+        else:
+            if x & 1:
+                n = -n
+            g = gcd(total_d, d)  # add n/d over the least common denominator
+            total_n = total_n * (d // g) + n * (total_d // g)
+            total_d *= d // g
+    if not total_n:
         return 0, 0, 1
-    pre = (
-        _delta_square(tj11, tj12, tj13)
-        * _delta_square(tj21, tj22, tj23)
-        * _delta_square(tj31, tj32, tj33)
-        * _delta_square(tj11, tj21, tj31)
-        * _delta_square(tj12, tj22, tj32)
-        * _delta_square(tj13, tj23, tj33)
-    )
-    square = pre * total * total
-    return (1 if total > 0 else -1), square.numerator, square.denominator
+    pre_n, pre_d = 1, 1
+    for i, k, m in _TRIADS:
+        dn, dd = _delta_square(t[i], t[k], t[m], F)
+        pre_n *= dn
+        pre_d *= dd
+    p, q = pre_n * total_n * total_n, pre_d * total_d * total_d
+    r = gcd(p, q)
+    return (1 if total_n > 0 else -1), p // r, q // r
+
+
+def _racah_part(al: tuple[int, ...], be: tuple[int, ...]) -> tuple[int, int]:
+    """A 6j over its four triangle factors, as (numerator, denominator): its Racah sum with the factorials.
+
+    Keyed by the 6j's invariants, so all 144 forms of one 6j share an entry:
+    the 6j's inside the sums of a file of 9j symbols repeat often.
+    """
+    sign, num, up, down = sixj_racah_sum(al, be)
+    F = factorials_upto(be[2] + 1)  # kmin + 1 <= min(beta) + 1 and every down term <= max(beta)
+    return sign * num * _product(F, up), _product(F, down)
+
+
+_racah_part_cached = lru_cache(maxsize=CACHE_ENTRIES)(_racah_part)
+
+
+def _product(F: list[int], args: list[int]) -> int:
+    out = 1
+    for a in args:
+        out *= F[a]
+    return out
 
 
 def ninej2(*t: int) -> Surd:

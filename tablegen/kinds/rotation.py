@@ -109,7 +109,7 @@ def d_at_cos2(tj: int, tmp: int, tm: int, c: Fraction, signs: tuple[int, int] = 
     # value^2 = prefactor^2 * (total / (2e)^top)^2 * x^ea y^eb / (2e)^(ea+eb)
     den = (2 * e) ** top
     value = _prefactor(tj, tmp, tm) * Surd.from_rational(Fraction(total, den))
-    return value * Surd.from_signed_square(h_sign * Fraction((x if ea else 1) * (y if eb else 1), (2 * e) ** (ea + eb)))
+    return value * Surd.from_square(Fraction((x if ea else 1) * (y if eb else 1), (2 * e) ** (ea + eb)), h_sign)
 
 
 def d_matrix_at_cos2(tj: int, c: Fraction, signs: tuple[int, int] = (1, 1)) -> tuple[tuple[Surd, ...], ...]:

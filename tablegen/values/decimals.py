@@ -30,28 +30,6 @@ def check_digits(digits: object) -> None:
         raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {MAX_DIGITS}")
 
 
-def _bracket(a: int, p: int, q: int, s: int) -> int:
-    """Compare sqrt(p/q)*10**s with a +- 1/2: -1 below a-1/2, 1 at/above a+1/2, 0 inside.
-
-    Uses 4*x versus (2a+-1)**2 with x = p*10**(2s)/q, all in integers.
-    """
-    if s >= 0:
-        lhs_num, lhs_den = 4 * p * 10 ** (2 * s), q
-    else:
-        lhs_num, lhs_den = 4 * p, q * 10 ** (-2 * s)
-    lo = (2 * a - 1) ** 2 * lhs_den
-    hi = (2 * a + 1) ** 2 * lhs_den
-    if lhs_num < lo:
-        return -1
-    if lhs_num > hi:
-        return 1
-    if lhs_num == hi:  # exact tie above: half to even
-        return 0 if a % 2 == 0 else 1
-    if lhs_num == lo:  # exact tie below
-        return 0 if a % 2 == 0 else -1
-    return 0
-
-
 _FAST_LEN = 1 << 3000
 
 
@@ -67,25 +45,37 @@ def surd_decimal(sign: int, p: int, q: int, digits: int) -> str:
         return "0"
     # first guess of the decimal exponent from the integers' lengths; the exact
     # check below corrects it by one either way if needed
-    e10 = (len(int_text(p)) - len(int_text(q))) // 2 if max(p, q) < _FAST_LEN else _log10_guess(p, q)
-    low, high = 10 ** (digits - 1), 10**digits
+    e10 = (len(str(p)) - len(str(q))) // 2 if p < _FAST_LEN and q < _FAST_LEN else _log10_guess(p, q)
+    pow10 = _POW10
+    top = len(pow10)
+    low2 = pow10[2 * digits - 2] if 2 * digits < top else 10 ** (2 * digits - 2)  # 10**(digits-1), squared
+    high2 = low2 * 100  # 10**digits, squared
     # settle the exponent exactly: low <= sqrt(p/q) * 10**s < high, s = digits-1-e10
     for _ in range(8):
-        s = digits - 1 - e10
-        num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
-        if num >= high * high * den:
+        s2 = 2 * (digits - 1 - e10)
+        if s2 >= 0:
+            num, den = p * (pow10[s2] if s2 < top else 10**s2), q
+        else:
+            num, den = p, q * (pow10[-s2] if -s2 < top else 10**-s2)
+        if num >= high2 * den:
             e10 += 1
-        elif num < low * low * den:
+        elif num < low2 * den:
             e10 -= 1
         else:
             break
-    s = digits - 1 - e10
-    num, den = (p * 10 ** (2 * s), q) if s >= 0 else (p, q * 10 ** (-2 * s))
+    else:  # pragma: no cover - the guess is never that far off
+        raise ArithmeticError("decimal exponent did not settle")
     a = isqrt(num // den)  # floor(sqrt(num/den)), since isqrt(floor(x)) = floor(sqrt(x))
-    a += _bracket(a, p, q, s)  # 0 or 1: round half to even, decided exactly
-    if a == high:  # rounding carried into the next power of ten
-        a, e10 = low, e10 + 1
+    # round half to even, decided exactly: sqrt(num/den) against a + 1/2
+    lhs, mid = 4 * num, (2 * a + 1) ** 2 * den
+    if lhs > mid or (lhs == mid and a & 1):
+        a += 1
+        if a * a == high2:  # rounding carried into the next power of ten
+            a, e10 = a // 10, e10 + 1
     return _format(sign, int_text(a), e10)
+
+
+_POW10 = [10**k for k in range(256)]
 
 
 def surd_float(sign: int, p: int, q: int) -> float:

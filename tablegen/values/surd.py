@@ -75,13 +75,17 @@ class Surd:
         return cls._trusted((n > 0) - (n < 0), n * n, d * d) if n else cls._trusted(0, 0, 1)
 
     @classmethod
-    def from_signed_square(cls, s: object) -> "Surd":
-        """The Surd x with sign(x) * x**2 == s, for a rational s."""
-        f = _as_fraction(s)
+    def from_square(cls, square: object, sign: int = 1) -> "Surd":
+        """sign * sqrt(square) for a rational square >= 0 and a sign in {-1, 0, 1}."""
+        f = _as_fraction(square)
         if f is None:
-            raise TypeError(f"cannot make a Surd from {type(s).__name__}")
+            raise TypeError(f"cannot make a Surd from {type(square).__name__}")
+        if f < 0:
+            raise ValueError(f"argument square = {square}: must be >= 0")
+        if sign not in (-1, 0, 1) or isinstance(sign, bool):
+            raise ValueError(f"argument sign = {sign!r}: must be -1, 0 or 1")
         n, d = f.numerator, f.denominator
-        return cls._trusted((n > 0) - (n < 0), abs(n), d) if n else cls._trusted(0, 0, 1)
+        return cls._trusted(sign, n, d) if n and sign else cls._trusted(0, 0, 1)
 
     def __setattr__(self, name: str, value: object) -> None:
         raise AttributeError("Surd is immutable")
@@ -106,7 +110,11 @@ class Surd:
         return self._q
 
     def squared(self) -> Fraction:
-        """The signed square sign * p/q, as a Fraction."""
+        """The square of the value, p/q >= 0, as a Fraction (the sign is ``sign``)."""
+        return Fraction(self._p, self._q) if self._sign else Fraction(0)
+
+    def _order_value(self) -> Fraction:
+        """sign * p/q: strictly increasing in the value, for ordering without roots."""
         return Fraction(self._sign * self._p, self._q)
 
     def is_rational(self) -> bool:
@@ -144,15 +152,15 @@ class Surd:
         # float is an exact binary rational and is compared as one, so ordering
         # agrees with ==; an infinity or NaN compares as itself.
         if isinstance(other, Surd):
-            return self.squared(), other.squared()
+            return self._order_value(), other._order_value()
         if isinstance(other, float):
             if other != other or abs(other) == float("inf"):
-                return self.squared(), other
+                return self._order_value(), other
             other = Fraction(other)
         f = _as_fraction(other)
         if f is None:
             return None
-        return self.squared(), (f * abs(f))
+        return self._order_value(), (f * abs(f))
 
     def __lt__(self, other: object) -> bool:
         k = self._order_key(other)
@@ -299,14 +307,20 @@ class Surd:
 
         return surd_latex(self._sign, self._p, self._q, style, wrap)
 
-    def prime_form(self) -> tuple[int, tuple[tuple[int, int], ...]]:
-        """(sign, ((prime, exponent), ...)) with p/q = prod(prime**exponent)."""
+    def prime_exponents(self) -> dict[int, int]:
+        """The square p/q factorised: {prime: exponent}, primes ascending, no zero exponents.
+
+        The value is ``sign * sqrt(prod(prime**exponent))``; a negative exponent
+        is a prime of q.  Example: -sqrt(5/14) gives {2: -1, 5: 1, 7: -1}.  Zero
+        and one both give {} (tell them apart by ``sign``).  Factorising a large
+        p or q takes time: this is for callers who want the data, no page uses it.
+        """
         if not self._sign:
-            return 0, ()
+            return {}
         exps = dict(intmath.prime_exponents(self._p))
         for prime, e in intmath.prime_exponents(self._q).items():
             exps[prime] = exps.get(prime, 0) - e
-        return self._sign, tuple(sorted(exps.items()))
+        return dict(sorted(exps.items()))
 
 
 # Slot setters bound once: the trusted constructor is on every hot path.

@@ -202,7 +202,7 @@ class TrigPoly:
         c = Fraction(c)
         p = poly_eval(self._coeffs, c)
         h2 = poly_eval(_SQUARE[self._half], c)
-        return self._factor * Surd.from_rational(p) * Surd.from_signed_square(h_sign * h2)
+        return self._factor * Surd.from_rational(p) * Surd.from_square(h2, h_sign)
 
     def interval(self, x, iv):
         """An mpmath interval containing the value at the interval x (radians), using the context iv."""

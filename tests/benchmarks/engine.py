@@ -87,6 +87,7 @@ def clear_caches() -> None:
     k3._threej_square_cached.cache_clear()
     k6._sixj_value_cached.cache_clear()
     k9._ninej_square.cache_clear()
+    k9._racah_part_cached.cache_clear()
 
 
 def cache_sizes() -> str:
@@ -95,6 +96,7 @@ def cache_sizes() -> str:
         "3j/CG": k3._threej_square_cached.cache_info(),
         "6j": k6._sixj_value_cached.cache_info(),
         "9j": k9._ninej_square.cache_info(),
+        "9j inner 6j": k9._racah_part_cached.cache_info(),
     }
     return ", ".join(f"{k} {v.currsize}" for k, v in infos.items())
 
