@@ -1,8 +1,11 @@
 """Build a reference site: plan -> compute -> render -> write -> check, top to bottom.
 
-The one function here reads in the order things happen.  Nothing is written
-before the plan and every value exist; everything is written into a staging
-folder that replaces the output folder only at the very end.
+``build`` reads in the order things happen.  Every check that can be made
+before computing is made first (size, target, text, free disk); the target is
+then locked, and everything is written into a staging folder that replaces the
+output folder only at the very end.  ``site_files`` is the same pipeline
+without the disk: it yields every file of the site, manifest and checksums
+included, which is what ``verify`` compares a site against.
 """
 
 from __future__ import annotations
@@ -11,16 +14,20 @@ import os
 import time
 from dataclasses import dataclass
 from itertools import chain
-from typing import Callable
+from typing import Callable, Iterable, Iterator
 
 from . import __version__
 from .buildinfo import BuildMeta
 from .compute import compute_values
-from .output import MANIFEST_FORMAT, Staging, check_target, sha256_hex
+from .errors import RecipeError
+from .output import MANIFEST, MANIFEST_FORMAT, SUMS, Staging, check_target, seal, sha256_hex
 from .plan import SitePlan, plan_site
 from .recipe import Recipe, check_size
 
-__all__ = ["build", "BuildResult", "family_counts"]
+__all__ = ["build", "BuildResult", "family_counts", "render_site", "site_files", "BYTES_PER_VALUE"]
+
+#: A low estimate of the bytes a site needs per tabulated value (13.2 MB for 17,129 in the default site).
+BYTES_PER_VALUE = 400
 
 
 @dataclass(frozen=True)
@@ -34,6 +41,16 @@ class BuildResult:
     seconds: float
 
 
+@dataclass(frozen=True)
+class RenderedSite:
+    """A site before it touches the disk: every file (lazily) and the manifest's fields."""
+
+    plan: SitePlan
+    values: int
+    files: Iterable[tuple[str, bytes]]
+    manifest: dict
+
+
 def family_counts(plan: SitePlan) -> tuple[tuple[str, int], ...]:
     """Number of tabulated values per family (6j/9j: one per symmetry class)."""
     counts: dict[str, int] = {}
@@ -42,20 +59,20 @@ def family_counts(plan: SitePlan) -> tuple[tuple[str, int], ...]:
     return tuple((f.family, counts.get(f.family, 0)) for f in plan.recipe.families)
 
 
-def build(
-    recipe: Recipe,
-    out_dir: str | os.PathLike = "site",
-    *,
-    jobs: int | None = None,
-    allow_large: bool = False,
-    discard_extra: bool = False,
-    progress: Callable[[str, int, int], None] | None = None,
-) -> BuildResult:
-    """Write the site for ``recipe`` into ``out_dir`` (replacing a previous site)."""
-    started = time.perf_counter()
-    check_size(recipe, allow_large)  # refuse before any computing
-    check_target(out_dir, discard_extra)  # refuse before any computing, too
+def check_text(recipe: Recipe) -> None:
+    """Refuse, before computing, text that cannot be written as UTF-8 (a stray byte from the shell)."""
+    for key in ("title", "notes"):
+        value = getattr(recipe, key)
+        try:
+            value.encode("utf-8")
+        except UnicodeEncodeError as exc:
+            raise RecipeError(key, value, f"holds a byte that is not UTF-8 text (at character {exc.start + 1})") from None
 
+
+def render_site(
+    recipe: Recipe, jobs: int | None = None, progress: Callable[[str, int, int], None] | None = None
+) -> RenderedSite:
+    """Plan, compute and prepare the renderers; the files are produced as they are read."""
     if progress:
         progress("planning", 0, 0)
     plan = plan_site(recipe)
@@ -76,36 +93,73 @@ def build(
         title=recipe.title,
         counts=counts,
     )
-    outputs = chain(
+    files = chain(
         render_html(plan, book, meta),
         render_latex(plan, book, meta),
         render_data(plan, book, meta, values_txt),
     )
+    manifest = {
+        "format": MANIFEST_FORMAT,
+        "tool": "tablegen",
+        "version": __version__,
+        "recipe": recipe.as_dict(),
+        "counts": dict(counts),
+        "pages": len(plan.pages),
+        "data_digest": meta.data_digest,
+        "data_digest_of": "values.txt",
+        "checksums": SUMS,
+    }
+    return RenderedSite(plan=plan, values=len(book), files=files, manifest=manifest)
+
+
+def site_files(recipe: Recipe, jobs: int | None = None) -> Iterator[tuple[str, bytes]]:
+    """Every file of the site for ``recipe`` as (relative path, bytes), without writing anything.
+
+    The files come in build order, manifest.json and SHA256SUMS last;
+    ``dict(site_files(recipe))`` is the whole site in memory.
+    """
+    rendered = render_site(recipe, jobs)
+    sums: dict[str, str] = {}
+    sizes: dict[str, int] = {}
+    for path, data in rendered.files:
+        sums[path], sizes[path] = sha256_hex(data), len(data)
+        yield path, data
+    manifest_bytes, sums_bytes = seal(rendered.manifest, sums, sizes)
+    yield MANIFEST, manifest_bytes
+    yield SUMS, sums_bytes
+
+
+def build(
+    recipe: Recipe,
+    out_dir: str | os.PathLike = "site",
+    *,
+    jobs: int | None = None,
+    allow_large: bool = False,
+    discard_extra: bool = False,
+    progress: Callable[[str, int, int], None] | None = None,
+) -> BuildResult:
+    """Write the site for ``recipe`` into ``out_dir`` (replacing a previous site)."""
+    started = time.perf_counter()
+    estimate = check_size(recipe, allow_large)  # refuse before any computing
+    check_target(out_dir, discard_extra)  # refuse before any computing, too
+    check_text(recipe)
+
+    # the target stays locked from here until the swap: a second build of it is refused at once
     with Staging(out_dir, discard_extra) as site:
-        for n, (path, data) in enumerate(outputs, 1):
+        site.check_room(sum(estimate.values()) * BYTES_PER_VALUE)
+        rendered = render_site(recipe, jobs, progress)
+        for n, (path, data) in enumerate(rendered.files, 1):
             site.write(path, data)
             if progress and n % 50 == 0:
                 progress("writing", n, 0)
-        site.finish(
-            {
-                "format": MANIFEST_FORMAT,
-                "tool": "tablegen",
-                "version": __version__,
-                "recipe": recipe.as_dict(),
-                "counts": dict(counts),
-                "pages": len(plan.pages),
-                "data_digest": meta.data_digest,
-                "data_digest_of": "values.txt",
-                "checksums": "SHA256SUMS",
-            }
-        )
+        site.finish(rendered.manifest)
         files, size = len(site.sums), sum(site.sizes.values())
     return BuildResult(
         out_dir=str(site.target),
-        pages=len(plan.pages),
+        pages=len(rendered.plan.pages),
         files=files + 1,
-        values=len(book),
+        values=rendered.values,
         bytes=size,
-        data_digest=meta.data_digest,
+        data_digest=rendered.manifest["data_digest"],
         seconds=time.perf_counter() - started,
     )

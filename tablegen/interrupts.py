@@ -1,0 +1,51 @@
+"""Holding SIGINT and SIGTERM back for the moments that must not be cut short.
+
+A build is stopped by an exception (the command line turns SIGTERM into
+KeyboardInterrupt).  Clean-up (killing workers, removing a staging folder) and
+the final swap run with both signals blocked; a signal that arrives meanwhile
+is either delivered afterwards or, once the build is ending anyway, dropped, so
+that a second Ctrl-C never interrupts the clean-up of the first.
+"""
+
+from __future__ import annotations
+
+import signal
+import threading
+from contextlib import contextmanager
+from typing import Iterator
+
+__all__ = ["signals_held", "drop_pending"]
+
+_HELD = {signal.SIGINT, signal.SIGTERM}
+
+
+def _can_block() -> bool:
+    return hasattr(signal, "pthread_sigmask") and threading.current_thread() is threading.main_thread()
+
+
+@contextmanager
+def signals_held() -> Iterator[None]:
+    """Defer SIGINT and SIGTERM (where the platform allows) for a critical section."""
+    can_block = _can_block()
+    if can_block:
+        previous = signal.pthread_sigmask(signal.SIG_BLOCK, _HELD)
+    try:
+        yield
+    finally:
+        if can_block:
+            signal.pthread_sigmask(signal.SIG_SETMASK, previous)
+
+
+def drop_pending() -> bool:
+    """Inside ``signals_held``: discard SIGINT/SIGTERM that arrived meanwhile; True if any did.
+
+    Used when the outcome is already settled (the build is being stopped, or
+    the new site is installed), so a late signal cannot turn a true outcome
+    message into a false one.
+    """
+    if not _can_block() or not hasattr(signal, "sigtimedwait"):
+        return False
+    dropped = False
+    while signal.sigtimedwait(_HELD, 0) is not None:
+        dropped = True
+    return dropped
