@@ -24,7 +24,7 @@ from .output import MANIFEST, MANIFEST_FORMAT, SUMS, Staging, check_target, seal
 from .plan import SitePlan, plan_site
 from .recipe import Recipe, check_size
 
-__all__ = ["build", "BuildResult", "family_counts", "render_site", "site_files", "BYTES_PER_VALUE"]
+__all__ = ["build", "BuildResult", "family_counts", "render_site", "site_files", "sealed_files", "BYTES_PER_VALUE"]
 
 #: A low estimate of the bytes a site needs per tabulated value (13.2 MB for 17,129 in the default site).
 BYTES_PER_VALUE = 400
@@ -118,7 +118,11 @@ def site_files(recipe: Recipe, jobs: int | None = None) -> Iterator[tuple[str, b
     The files come in build order, manifest.json and SHA256SUMS last;
     ``dict(site_files(recipe))`` is the whole site in memory.
     """
-    rendered = render_site(recipe, jobs)
+    return sealed_files(render_site(recipe, jobs))
+
+
+def sealed_files(rendered: RenderedSite) -> Iterator[tuple[str, bytes]]:
+    """The rendered files, then manifest.json and SHA256SUMS made from them."""
     sums: dict[str, str] = {}
     sizes: dict[str, int] = {}
     for path, data in rendered.files:

@@ -108,7 +108,8 @@ def _first_unremovable(folder: Path) -> str | None:
     for root, subdirs, _ in os.walk(folder, onerror=_raise):
         subdirs[:] = sorted(d for d in subdirs if not os.path.islink(os.path.join(root, d)))
         if me != 0 and not os.access(root, os.W_OK | os.X_OK) and os.stat(root).st_uid != me:
-            return Path(root).relative_to(folder).as_posix() + "/"
+            rel = Path(root).relative_to(folder).as_posix()
+            return "." if rel == "." else rel + "/"
     return None
 
 
