@@ -125,21 +125,22 @@ def _run_serial(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Sho
         yield _compute_chunk((c, digits, style))
 
 
-def _worker(conn, work: list) -> None:
-    """One worker process: compute its chunks in order and send each result back.
+def _worker(conn) -> None:
+    """One worker process: receive its chunks, compute them in order, send each result back.
 
     It ignores SIGINT (Ctrl-C reaches the whole terminal group; the main
-    process decides and ends the workers) and dies at once on SIGTERM.
+    process decides and ends the workers) and dies at once on SIGTERM.  If the
+    main process goes away mid-conversation the worker ends without a word.
     """
     import signal
 
     signal.signal(signal.SIGTERM, signal.SIG_DFL)
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     try:
-        for w in work:
+        for w in conn.recv():
             conn.send(_compute_chunk(w))
-    except (BrokenPipeError, EOFError, OSError):
-        pass  # the main process is gone or stopped listening
+    except (EOFError, OSError, ValueError, ImportError, MemoryError, __import__("pickle").UnpicklingError):
+        pass  # the main process is gone or stopped: it reports what happened, not the worker
     finally:
         conn.close()
 
@@ -162,12 +163,15 @@ def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Sh
     procs, conns = [], []
     try:
         for k in range(jobs):
-            recv, send = ctx.Pipe(duplex=False)
-            p = ctx.Process(target=_worker, args=(send, work[k::jobs]), daemon=True)
-            p.start()
-            send.close()
+            mine, theirs = ctx.Pipe()
+            p = ctx.Process(target=_worker, args=(theirs,), daemon=True)
+            with signals_held():  # a start cut short would leave the child a truncated message to complain about
+                p.start()
+            theirs.close()
             procs.append(p)
-            conns.append(recv)
+            conns.append(mine)
+        for k, conn in enumerate(conns):
+            conn.send(work[k::jobs])
         for i in range(len(work)):
             k = i % jobs
             try:

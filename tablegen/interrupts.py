@@ -49,3 +49,35 @@ def drop_pending() -> bool:
     while signal.sigtimedwait(_HELD, 0) is not None:
         dropped = True
     return dropped
+
+
+_interrupted = False
+
+
+def stop_once(signum, frame) -> None:
+    """Signal handler for a build: the first SIGINT/SIGTERM stops it, later ones wait.
+
+    It blocks both signals before raising KeyboardInterrupt, so a second
+    Ctrl-C cannot cut the clean-up (workers, staging folder, lock) short; see
+    ``after_stop`` for what happens to the signals held back.
+    """
+    global _interrupted
+    _interrupted = True
+    if _can_block():
+        signal.pthread_sigmask(signal.SIG_BLOCK, _HELD)
+    raise KeyboardInterrupt
+
+
+def after_stop(process_ends: bool) -> None:
+    """After a build: drop signals held back since ``stop_once``; unblock them unless the process now ends.
+
+    A program about to exit keeps them blocked to the end, so that neither its
+    last message nor Python's own exit handlers can be interrupted.
+    """
+    global _interrupted
+    if not _interrupted:
+        return
+    _interrupted = False
+    drop_pending()
+    if not process_ends and _can_block():
+        signal.pthread_sigmask(signal.SIG_UNBLOCK, _HELD)

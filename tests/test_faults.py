@@ -170,11 +170,13 @@ def test_unwritable_places_are_one_line(tmp_path: Path, target: str) -> None:
 
 # -- signals -------------------------------------------------------------------------------------
 def test_sigterm_handler_is_restored_after_a_build(tmp_path: Path, capsys) -> None:
-    before = signal.getsignal(signal.SIGTERM)
+    before = [signal.getsignal(s) for s in (signal.SIGINT, signal.SIGTERM)]
+    mask = signal.pthread_sigmask(signal.SIG_BLOCK, [])
     assert _cli(capsys, "build", "--out", str(tmp_path / "site"), "--cg", "1/2", "--quiet")[0] == 0
-    assert signal.getsignal(signal.SIGTERM) == before
+    assert [signal.getsignal(s) for s in (signal.SIGINT, signal.SIGTERM)] == before
     assert _cli(capsys, "build", "--out", str(tmp_path / "site"), "--cg", "x")[0] == 2
-    assert signal.getsignal(signal.SIGTERM) == before
+    assert [signal.getsignal(s) for s in (signal.SIGINT, signal.SIGTERM)] == before
+    assert signal.pthread_sigmask(signal.SIG_BLOCK, []) == mask  # nothing left blocked for a caller
 
 
 @pytest.mark.slow
@@ -419,7 +421,10 @@ def test_a_second_ctrl_c_during_clean_up_leaves_nothing_and_prints_no_traceback(
         if proc.returncode == 0:
             before = _snapshot(out)
         else:
-            assert proc.returncode == 130 and err.strip() == "tablegen: interrupted", (proc.returncode, err)
+            # 130, or killed by the second SIGINT once Python had already restored its default
+            # action while exiting (after the clean-up and the message): both end the build truly
+            assert proc.returncode in (130, -signal.SIGINT), (proc.returncode, err)
+            assert err.strip() == "tablegen: interrupted", err
             assert _snapshot(out) == before
 
 
