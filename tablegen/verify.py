@@ -30,6 +30,8 @@ __all__ = ["verify_site", "Report"]
 
 #: File differences listed one by one; the rest are counted.
 MAX_LISTED = 40
+#: Problems listed in all; the summary counts every one.
+MAX_PROBLEMS = 200
 #: Longest excerpt of a line shown in a problem.
 EXCERPT = 60
 
@@ -48,13 +50,20 @@ class Report:
         return not self.problems
 
     def add(self, problem: str) -> None:
-        if problem not in self._seen:
-            self._seen.add(problem)
+        if problem in self._seen:
+            return
+        self._seen.add(problem)
+        if len(self.problems) < MAX_PROBLEMS:
             self.problems.append(problem)
+        elif len(self.problems) == MAX_PROBLEMS:
+            self.problems.append("... and more problems, not listed")
 
     def summary(self) -> str:
-        state = "OK" if self.ok else f"{len(self.problems)} problem{'s' * (len(self.problems) != 1)}"
-        return f"verify: {self.files} files checked, {self.values} values recomputed and compared{self.method}: {state}"
+        """The verdict line, then any notes on how the site was checked."""
+        n = len(self._seen)
+        state = "OK" if self.ok else f"{n} problem{'s' * (n != 1)}"
+        head = f"verify: {self.files} files checked, {self.values} values recomputed and compared{self.method}: {state}"
+        return "\n".join([head, *(f"  note: {note}" for note in self.notes)])
 
 
 class _Site:
@@ -112,7 +121,8 @@ def verify_site(folder: str | os.PathLike, jobs: int | None = None) -> Report:
     if isinstance(made_by, str) and made_by != __version__:
         report.notes.append(
             f"made by tablegen {made_by[:EXCERPT]}, this is tablegen {__version__}: the files cannot be "
-            "compared byte for byte, so every value in every data file was recomputed instead"
+            "compared byte for byte, so every value in every data file (CSV, JSON, values.txt) was "
+            "recomputed instead; the HTML pages and LaTeX files were not checked value by value"
         )
     from .verify_values import check_values
 

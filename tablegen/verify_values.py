@@ -12,8 +12,10 @@ rows, in the same order, no repeats) and against the manifest's counts.
 from __future__ import annotations
 
 import csv
+import hashlib
 import io
 import json
+import re
 from pathlib import Path
 
 from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments
@@ -246,3 +248,25 @@ def check_values(root: Path, present: set[str], read, report, manifest: dict | N
             checker.json_table(path)
     listed = checker.values_txt() if "values.txt" in present else set()
     checker.agreement(listed, manifest.get("counts") if isinstance(manifest, dict) else None)
+    values_txt = read("values.txt")
+    if values_txt is not None:
+        _check_digest_mentions(present, read, report, hashlib.sha256(values_txt).hexdigest())
+
+
+_DIGEST_LIKE = re.compile(r"\b[0-9a-f]{12}(?:[0-9a-f]{52})?\b")
+
+
+def _check_digest_mentions(present: set[str], read, report, digest: str) -> None:
+    """Pages, LaTeX and cite.bib quote the data digest (whole, or its first 12 digits): it must be the true one.
+
+    This much of the HTML and LaTeX needs no knowledge of another version's layout.
+    """
+    for path in sorted(present):
+        if not path.endswith((".html", ".tex", ".bib")):
+            continue
+        data = read(path)
+        text = data.decode("utf-8", "replace") if data is not None else ""
+        for found in _DIGEST_LIKE.findall(text):
+            if not digest.startswith(found):
+                report.add(f"{path}: quotes the data digest {found}, but values.txt has {digest}")
+                break

@@ -270,14 +270,19 @@ def _delete_row_everywhere(site: Path) -> None:
                 p.write_text(text.replace(old, new).replace(old[:12], new[:12]), encoding="utf-8")
 
 
+def _other_hex(m: re.Match) -> str:
+    """A plausible forged digest: one hex digit changed."""
+    return m.group(1) + ("0" if m.group(2) != "0" else "1")
+
+
 FORGERIES = {
     # name: (forge(site), the file a problem line must name)
     "html-value": (lambda s: _sub_first(s, "6j/jmax-1.html", r"0\.166666666666667", "0.166666666666668"), "6j/jmax-1.html"),
     "latex-fragment-value": (lambda s: _sub_first(s, "latex/6j-jmax-1.tex", r"\\frac\{1\}\{6\}", r"\\frac{1}{7}"), "latex/6j-jmax-1.tex"),
     "latex-sheet-title": (lambda s: _sub_first(s, "latex/6j-jmax-1-sheet.tex", r"largest \$j = 1\$", "largest $j = 2$"), "latex/6j-jmax-1-sheet.tex"),
     "cite-bib-count": (lambda s: _sub_first(s, "cite.bib", r"cg: 56 values", "cg: 57 values"), "cite.bib"),
-    "cite-bib-digest": (lambda s: _sub_first(s, "cite.bib", r"SHA-256 of values.txt\): [0-9a-f]", "SHA-256 of values.txt): x"), "cite.bib"),
-    "page-footer-digest": (lambda s: _sub_first(s, "index.html", r'values.txt">[0-9a-f]', 'values.txt">x'), "index.html"),
+    "cite-bib-digest": (lambda s: _sub_first(s, "cite.bib", r"(SHA-256 of values.txt\): )([0-9a-f])", _other_hex), "cite.bib"),
+    "page-footer-digest": (lambda s: _sub_first(s, "index.html", r'(values.txt">)([0-9a-f])', _other_hex), "index.html"),
     "csv-w-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.csv", re.escape(_ROW_6J), _ROW_6J.replace(",-1\n", ",1\n")), "data/6j-jmax-1.csv"),
     "json-w-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.json", r'"sign":-1', '"sign":1'), "data/6j-jmax-1.json"),
     "json-form-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.json", r'(\["[^"]+",)1\]', r"\1-1]"), "data/6j-jmax-1.json"),
@@ -347,7 +352,7 @@ def test_another_versions_site_is_checked_value_by_value(capsys, site: Path, oth
 
 
 VALUE_FORGERIES = [
-    "csv-w-sign", "json-w-sign", "json-form-sign", "row-deleted-everywhere", "csv-row-removed-not-json",
+    "cite-bib-digest", "page-footer-digest", "csv-w-sign", "json-w-sign", "json-form-sign", "row-deleted-everywhere", "csv-row-removed-not-json",
     "row-duplicated", "manifest-counts", "manifest-digits",
 ]
 
