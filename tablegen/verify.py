@@ -114,11 +114,12 @@ def verify_site(folder: str | os.PathLike, jobs: int | None = None) -> Report:
     _check_digest(site, manifest, report)
     recipe = _manifest_recipe(manifest, report, present, root)
     made_by = manifest.get("version") if isinstance(manifest, dict) else None
+    other = isinstance(made_by, str) and made_by != __version__  # a missing or odd version is a problem, not a version
     if recipe is not None:
-        same = _compare_rebuild(site, recipe, present, listed, report, jobs, made_by)
-        if made_by == __version__ or same:
+        same = _compare_rebuild(site, recipe, present, listed, report, jobs, made_by, other)
+        if not other or same:
             return report
-    if isinstance(made_by, str) and made_by != __version__:
+    if other:
         report.notes.append(
             f"made by tablegen {made_by[:EXCERPT]}, this is tablegen {__version__}: the files cannot be "
             "compared byte for byte, so every value in every data file (CSV, JSON, values.txt) was "
@@ -217,7 +218,7 @@ def _manifest_recipe(manifest: dict | None, report: Report, present: set[str], r
     return recipe
 
 
-def _compare_rebuild(site, recipe, present, listed, report: Report, jobs, made_by) -> bool:
+def _compare_rebuild(site, recipe, present, listed, report: Report, jobs, made_by, other: bool) -> bool:
     """Rebuild the site in memory and compare every file; True if every byte agrees."""
     from .build import render_site, sealed_files
 
@@ -251,7 +252,7 @@ def _compare_rebuild(site, recipe, present, listed, report: Report, jobs, made_b
         and site.read(MANIFEST) is not None
         and _manifest_keys_differing(site.read(MANIFEST), manifest_bytes) == ["version"]
     )
-    if made_by != __version__ and problems and not version_only:
+    if other and problems and not version_only:
         return False  # another version's site: checked value by value instead
     report.values = rendered.values
     report.method = f", site rebuilt from its recipe and compared byte for byte ({len(made)} files)"

@@ -298,6 +298,9 @@ FORGERIES = {
     "manifest-counts": (lambda s: _edit_manifest(s, lambda d: d["counts"].update(cg=57)), "manifest.json"),
     "manifest-recipe": (lambda s: _edit_manifest(s, lambda d: d["recipe"]["cg"].update(max_j="1/2")), "manifest.json"),
     "manifest-version": (lambda s: _edit_manifest(s, lambda d: d.update(version="0.0.9")), "manifest.json"),
+    "manifest-version-removed": (lambda s: _edit_manifest(s, lambda d: d.pop("version")), "manifest.json"),
+    "manifest-version-and-counts": (
+        lambda s: _edit_manifest(s, lambda d: (d.update(version="0.0.9"), d["counts"].update(cg=57))), "manifest.json"),
     "manifest-digits": (lambda s: _edit_manifest(s, lambda d: d["recipe"].update(digits=14)), "manifest.json"),
 }
 
