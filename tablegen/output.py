@@ -388,3 +388,7 @@ class Staging:
             # the new site is in place: a signal that came during the swap must not
             # make the outcome look like an interrupted build
             drop_pending()
+        if old.exists():  # checked to be removable beforehand; say so if the disk disagreed
+            raise OutputError(
+                target, f"the new site is installed, but the previous one could not be removed from {str(old)!r}"
+            )

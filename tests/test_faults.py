@@ -472,3 +472,16 @@ def test_an_interrupt_during_clean_up_is_not_a_second_outcome(tmp_path: Path, ca
     monkeypatch.undo()
     assert status == 130 and err == ["tablegen: interrupted"], err
     assert _snapshot(out) == before and _hidden(tmp_path) == []
+
+
+def test_an_old_copy_that_cannot_be_removed_is_reported_truly(tmp_path: Path, capsys, monkeypatch) -> None:
+    import tablegen.output as output_module
+
+    out = tmp_path / "site"
+    assert _cli(capsys, "build", "--out", str(out), *SMALL, "--quiet")[0] == 0
+    real_remove = output_module._remove_tree
+    monkeypatch.setattr(output_module, "_remove_tree", lambda p: None if ".tablegen-old-" in p.name else real_remove(p))
+    status, err = _cli(capsys, "build", "--out", str(out), "--cg", "1/2", "--quiet")
+    monkeypatch.undo()
+    assert status == 2 and len(err) == 1 and "new site is installed" in err[0] and ".site.tablegen-old-" in err[0], err
+    assert json.loads((out / "manifest.json").read_text())["recipe"]["cg"] == {"max_j": "1/2"}
