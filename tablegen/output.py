@@ -367,6 +367,7 @@ class Staging:
         self.write(MANIFEST, manifest_bytes)
         with open(self._dir / SUMS, "wb") as fh:
             fh.write(sums_bytes)
+        check_target(self.target, self._discard_extra)  # a file the user added while we computed is not ours to delete
         self._swap()
 
     def _swap(self) -> None:

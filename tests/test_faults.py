@@ -485,3 +485,22 @@ def test_an_old_copy_that_cannot_be_removed_is_reported_truly(tmp_path: Path, ca
     monkeypatch.undo()
     assert status == 2 and len(err) == 1 and "new site is installed" in err[0] and ".site.tablegen-old-" in err[0], err
     assert json.loads((out / "manifest.json").read_text())["recipe"]["cg"] == {"max_j": "1/2"}
+
+
+def test_a_file_added_to_the_site_during_the_build_is_kept(tmp_path: Path, capsys, monkeypatch) -> None:
+    import tablegen.build as build_module
+
+    out = tmp_path / "site"
+    assert _cli(capsys, "build", "--out", str(out), *SMALL, "--quiet")[0] == 0
+    real_compute = build_module.compute_values
+
+    def compute_while_the_user_writes(*args, **kwargs):
+        (out / "notes.txt").write_bytes(b"written while the build computed\n")
+        return real_compute(*args, **kwargs)
+
+    monkeypatch.setattr(build_module, "compute_values", compute_while_the_user_writes)
+    status, err = _cli(capsys, "build", "--out", str(out), "--cg", "1/2", "--quiet")
+    monkeypatch.undo()
+    assert status == 2 and len(err) == 1 and "'notes.txt'" in err[0], err
+    assert (out / "notes.txt").read_bytes() == b"written while the build computed\n"
+    assert _hidden(tmp_path) == []
