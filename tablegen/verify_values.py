@@ -76,13 +76,13 @@ class _Checker:
             return None
         name = symbol_text(family, t)
         if exact is not None and exact != str(value):
-            self.problem(f"{where}: {name}: exact {exact!r}, but the engine gives {str(value)!r}")
+            self.problem(f"{where}: {name}: exact {_cut(exact)}, but the engine gives {_cut(str(value))}")
         if square is not None and square != str(value.squared()):
-            self.problem(f"{where}: {name}: square {square!r}, but the engine gives {str(value.squared())!r}")
+            self.problem(f"{where}: {name}: square {_cut(square)}, but the engine gives {_cut(str(value.squared()))}")
         if decimal is not None and self.engine.digits is not None:
             want = value.decimal(self.engine.digits)
             if decimal != want:
-                self.problem(f"{where}: {name}: decimal {decimal!r}, but the engine gives {want!r}")
+                self.problem(f"{where}: {name}: decimal {_cut(decimal)}, but the engine gives {_cut(want)}")
         return value
 
     def sign_of(self, where: str, family: str, value: Surd | None, form: str, sign, what: str) -> None:
@@ -95,7 +95,9 @@ class _Checker:
             self.problem(f"{where}: {what} {str(form)[:60]!r} cannot be read ({exc})")
             return
         if sign not in (1, -1, "1", "-1") or there != (value if int(sign) == 1 else -value):
-            self.problem(f"{where}: {what} {symbol_text(family, t)} listed with sign {sign!r}, but the engine gives {there}")
+            self.problem(
+                f"{where}: {what} {symbol_text(family, t)} listed with sign {_cut(sign)}, but the engine gives {_cut(str(there))}"
+            )
 
     def csv_table(self, path: str) -> None:
         text = self.text(path)
@@ -222,6 +224,12 @@ class _Checker:
                         f"manifest.json: counts says {family}: {counts.get(family)!r}, "
                         f"but the data files hold {found.get(family, 0)}"
                     )
+
+
+def _cut(value: object, n: int = 60) -> str:
+    """A value quoted for a problem line: control characters escaped, at most about n characters."""
+    text = repr(value)
+    return text if len(text) <= n else text[: n - 1] + "…"
 
 
 def _family_of_columns(columns: list[str]) -> str | None:
