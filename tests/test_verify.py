@@ -391,3 +391,14 @@ def test_a_huge_forged_value_gives_a_short_line(capsys, site: Path, other_versio
     status, out, _ = _run(capsys, site)
     assert status == 1 and any("<1 1; 1 -1 | 0 0>: exact" in line for line in out), out
     assert len(max(out, key=len)) < 400
+
+
+@pytest.mark.parametrize("body", ['"rows": 5', '"rows": [{"args": null}]'])
+def test_malformed_json_tables_in_a_same_version_site_are_differences(capsys, site: Path, body: str) -> None:
+    path = site / "data" / "6j-jmax-1.json"
+    doc = path.read_text(encoding="utf-8")
+    path.write_text(doc[: doc.index('"rows": [')] + body + "\n}\n", encoding="utf-8")
+    _forge_sums(site)
+    status, out, err = _run(capsys, site)
+    assert status == 1 and err == "", (out, err)
+    assert any(line.startswith("  data/6j-jmax-1.json line ") for line in out), out
