@@ -14,7 +14,7 @@ import threading
 from contextlib import contextmanager
 from typing import Iterator
 
-__all__ = ["signals_held", "drop_pending"]
+__all__ = ["signals_held", "drop_pending", "stop_once", "after_stop"]
 
 _HELD = {signal.SIGINT, signal.SIGTERM}
 
@@ -23,17 +23,34 @@ def _can_block() -> bool:
     return hasattr(signal, "pthread_sigmask") and threading.current_thread() is threading.main_thread()
 
 
+_depth = 0  # how many signals_held sections are open
+_deferred = False  # a stop that came during one, to be raised when the last one closes
+_interrupted = False  # the build is being stopped: later signals change nothing
+
+
 @contextmanager
 def signals_held() -> Iterator[None]:
-    """Defer SIGINT and SIGTERM (where the platform allows) for a critical section."""
+    """Defer SIGINT and SIGTERM for a critical section.
+
+    The signals are blocked in this thread; a stop that still reaches
+    ``stop_once`` (delivered through another thread, which has its own mask) is
+    recorded and raised when the outermost section closes, unless
+    ``drop_pending`` settled the outcome first.
+    """
+    global _depth, _deferred
     can_block = _can_block()
     if can_block:
         previous = signal.pthread_sigmask(signal.SIG_BLOCK, _HELD)
+    _depth += 1
     try:
         yield
     finally:
+        _depth -= 1
         if can_block:
             signal.pthread_sigmask(signal.SIG_SETMASK, previous)
+        if _depth == 0 and _deferred:
+            _deferred = False
+            raise KeyboardInterrupt
 
 
 def drop_pending() -> bool:
@@ -43,28 +60,32 @@ def drop_pending() -> bool:
     the new site is installed), so a late signal cannot turn a true outcome
     message into a false one.
     """
+    global _deferred
+    dropped, _deferred = _deferred, False
     if not _can_block() or not hasattr(signal, "sigtimedwait"):
-        return False
-    dropped = False
+        return dropped
     while signal.sigtimedwait(_HELD, 0) is not None:
         dropped = True
     return dropped
 
 
-_interrupted = False
-
-
 def stop_once(signum, frame) -> None:
-    """Signal handler for a build: the first SIGINT/SIGTERM stops it, later ones wait.
+    """Signal handler for a build: the first SIGINT/SIGTERM stops it, later ones change nothing.
 
     It blocks both signals before raising KeyboardInterrupt, so a second
-    Ctrl-C cannot cut the clean-up (workers, staging folder, lock) short; see
+    Ctrl-C cannot cut the clean-up (workers, staging folder, lock) short; inside
+    a ``signals_held`` section the stop waits for the section's end.  See
     ``after_stop`` for what happens to the signals held back.
     """
-    global _interrupted
+    global _interrupted, _deferred
+    if _interrupted:
+        return
     _interrupted = True
     if _can_block():
         signal.pthread_sigmask(signal.SIG_BLOCK, _HELD)
+    if _depth:
+        _deferred = True
+        return
     raise KeyboardInterrupt
 
 

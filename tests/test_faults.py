@@ -428,10 +428,18 @@ def test_a_second_ctrl_c_during_clean_up_leaves_nothing_and_prints_no_traceback(
             assert _snapshot(out) == before
 
 
-def test_sigterm_during_the_swap_reports_the_true_outcome(tmp_path: Path, capsys, monkeypatch) -> None:
+@pytest.mark.parametrize("other_thread", [False, True], ids=["main-thread-only", "with-another-thread"])
+def test_sigterm_during_the_swap_reports_the_true_outcome(tmp_path: Path, capsys, monkeypatch, other_thread) -> None:
+    # with another thread alive, the kernel hands it the signal the main thread blocks; the
+    # handler still runs in the main thread, so blocking alone does not defer it
+    import threading
+
     import tablegen.output as output_module
     from tablegen.verify import verify_site
 
+    stop = threading.Event()
+    if other_thread:
+        threading.Thread(target=stop.wait, args=(60,), daemon=True).start()
     out = tmp_path / "site"
     assert _cli(capsys, "build", "--out", str(out), *SMALL, "--quiet")[0] == 0
     real_rename = os.rename
@@ -441,7 +449,10 @@ def test_sigterm_during_the_swap_reports_the_true_outcome(tmp_path: Path, capsys
         return real_rename(src, dst)
 
     monkeypatch.setattr(output_module.os, "rename", rename)
-    status = cli.main(["build", "--out", str(out), "--cg", "1/2"])
+    try:
+        status = cli.main(["build", "--out", str(out), "--cg", "1/2"])
+    finally:
+        stop.set()
     captured = capsys.readouterr()
     monkeypatch.undo()
     assert status == 0 and "interrupted" not in captured.err, captured
