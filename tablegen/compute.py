@@ -16,7 +16,7 @@ from typing import Callable, Iterator
 
 from .coefficients import DOUBLED
 from .errors import RecipeError, TablegenError
-from .interrupts import signals_held
+from .interrupts import sigint_ignored_by_children, signals_held
 from .plan import SitePlan
 from .values import Surd
 
@@ -165,7 +165,8 @@ def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Sh
         for k in range(jobs):
             mine, theirs = ctx.Pipe()
             p = ctx.Process(target=_worker, args=(theirs,), daemon=True)
-            with signals_held():  # a start cut short would leave the child a truncated message to complain about
+            # a start cut short would leave the child a truncated message to complain about
+            with sigint_ignored_by_children():
                 p.start()
             theirs.close()
             procs.append(p)

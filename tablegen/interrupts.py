@@ -14,7 +14,7 @@ import threading
 from contextlib import contextmanager
 from typing import Iterator
 
-__all__ = ["signals_held", "drop_pending", "stop_once", "after_stop"]
+__all__ = ["signals_held", "drop_pending", "stop_once", "after_stop", "sigint_ignored_by_children"]
 
 _HELD = {signal.SIGINT, signal.SIGTERM}
 
@@ -102,3 +102,26 @@ def after_stop(process_ends: bool) -> None:
     drop_pending()
     if not process_ends and _can_block():
         signal.pthread_sigmask(signal.SIG_UNBLOCK, _HELD)
+
+
+@contextmanager
+def sigint_ignored_by_children() -> Iterator[None]:
+    """Start processes (worker, fork server) that ignore Ctrl-C from their first instruction.
+
+    A terminal sends Ctrl-C to the whole process group; a child still importing
+    would print a KeyboardInterrupt traceback.  An ignored signal stays ignored
+    across exec, so SIGINT is ignored here while the child starts, with
+    SIGINT/SIGTERM held so that no stop is lost meanwhile: one already pending
+    stops the build before the child is started.
+    """
+    if not _can_block():
+        yield
+        return
+    with signals_held():
+        if signal.SIGINT in signal.sigpending():
+            raise KeyboardInterrupt
+        previous = signal.signal(signal.SIGINT, signal.SIG_IGN)
+        try:
+            yield
+        finally:
+            signal.signal(signal.SIGINT, previous)
