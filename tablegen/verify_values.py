@@ -18,6 +18,7 @@ import json
 import re
 from pathlib import Path
 
+from . import symmetry
 from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments
 from .errors import TablegenError
 from .notation import symbol_text
@@ -53,6 +54,12 @@ class _Checker:
         self.engine = _Engine(digits)
         self.rows: dict[str, dict[str, list[Key]]] = {}  # table stem -> {"csv"/"json": rows}
         self.in_tables: set[Key] = set()
+        self.decimals: set[str] = set()
+
+    def _shown(self, value: Surd) -> None:
+        """Remember |value| as a decimal: pages and LaTeX may print no other."""
+        if self.engine.digits is not None:
+            self.decimals.add(value.decimal(self.engine.digits).lstrip("-"))
 
     def problem(self, text: str) -> None:
         self.report.add(text)
@@ -75,6 +82,7 @@ class _Checker:
             self.problem(f"{where}: arguments {' '.join(map(str, args))[:60]} cannot be read ({exc})")
             return None
         name = symbol_text(family, t)
+        self._shown(value)
         if exact is not None and exact != str(value):
             self.problem(f"{where}: {name}: exact {_cut(exact)}, but the engine gives {_cut(str(value))}")
         if square is not None and square != str(value.squared()):
@@ -94,10 +102,40 @@ class _Checker:
         except (TablegenError, TypeError, ValueError, AttributeError) as exc:
             self.problem(f"{where}: {what} {str(form)[:60]!r} cannot be read ({exc})")
             return
+        self._shown(there)
         if sign not in (1, -1, "1", "-1") or there != (value if int(sign) == 1 else -value):
             self.problem(
                 f"{where}: {what} {symbol_text(family, t)} listed with sign {_cut(sign)}, but the engine gives {_cut(str(there))}"
             )
+
+    def forms(self, where: str, family: str, args, value: Surd | None, forms: list) -> None:
+        """Each listed symmetry form with its sign: a member of the class, with the phase the algebra gives.
+
+        The members and their phases (Regge 1958/1959 for 3j and 6j; the 72
+        of the 9j, Edmonds 1957 6.4) come from symmetry.py; a form outside the
+        class is recomputed with the engine, so a wrong sign never passes.
+        """
+        if value is None or not forms:
+            return
+        t, _ = self.engine.value(family, tuple(str(a) for a in args))
+        phases = {m: sign for m, sign in symmetry.members(family, *t)} if family in ("3j", "6j", "9j") else {}
+        for form in forms:
+            if not (isinstance(form, list) and len(form) == 2 and isinstance(form[0], str)):
+                self.problem(f"{where}: malformed symmetry form {str(form)[:60]}")
+                continue
+            try:
+                tf = parse_arguments(family, form[0].split(" "), max_j=10**6)
+            except (TablegenError, ValueError, TypeError):
+                self.problem(f"{where}: symmetry form {form[0][:60]!r} cannot be read")
+                continue
+            if tf in phases and form[1] in (1, -1):
+                if phases[tf] != form[1] and value:
+                    self.problem(
+                        f"{where}: symmetry form {symbol_text(family, tf)} listed with sign {form[1]}, "
+                        f"but the algebra gives {phases[tf]}"
+                    )
+            else:
+                self.sign_of(where, family, value, form[0], form[1], "symmetry form")
 
     def csv_table(self, path: str) -> None:
         text = self.text(path)
@@ -157,11 +195,7 @@ class _Checker:
                 continue
             value = self.value(where, family, args, exact, square, decimal)
             forms = row.get("forms", [])
-            for form in forms if isinstance(forms, list) else [forms]:
-                if not (isinstance(form, list) and len(form) == 2 and isinstance(form[0], str)):
-                    self.problem(f"{where}: malformed symmetry form {str(form)[:60]}")
-                    continue
-                self.sign_of(where, family, value, form[0], form[1], "symmetry form")
+            self.forms(where, family, args, value, forms if isinstance(forms, list) else [forms])
             w = row.get("w")
             if w is not None:
                 if isinstance(w, dict) and isinstance(w.get("args"), list):
@@ -259,6 +293,28 @@ def check_values(root: Path, present: set[str], read, report, manifest: dict | N
     values_txt = read("values.txt")
     if values_txt is not None:
         _check_digest_mentions(present, read, report, hashlib.sha256(values_txt).hexdigest())
+    if digits is not None:
+        _check_printed_decimals(present, read, report, checker.decimals)
+
+
+_LONG_DECIMAL = re.compile(r"(?<![\w.])\d+\.\d{6,}(?![\w.])")
+
+
+def _check_printed_decimals(present: set[str], read, report, decimals: set[str]) -> None:
+    """Every long decimal a page or LaTeX file prints must be the decimal of a value the engine gave.
+
+    A layout-free check of another version's HTML and LaTeX: it catches a
+    changed digit, not a value moved to another cell.
+    """
+    for path in sorted(present):
+        if not path.endswith((".html", ".tex")):
+            continue
+        data = read(path)
+        text = data.decode("utf-8", "replace") if data is not None else ""
+        for found in _LONG_DECIMAL.findall(text):
+            if found not in decimals:
+                report.add(f"{path}: prints the decimal {found[:60]}, which is no value of this site")
+                break
 
 
 _DIGEST_LIKE = re.compile(r"\b[0-9a-f]{12}(?:[0-9a-f]{52})?\b")

@@ -355,7 +355,7 @@ def test_another_versions_site_is_checked_value_by_value(capsys, site: Path, oth
 
 
 VALUE_FORGERIES = [
-    "cite-bib-digest", "page-footer-digest", "csv-w-sign", "json-w-sign", "json-form-sign", "row-deleted-everywhere", "csv-row-removed-not-json",
+    "html-value", "cite-bib-digest", "page-footer-digest", "csv-w-sign", "json-w-sign", "json-form-sign", "row-deleted-everywhere", "csv-row-removed-not-json",
     "row-duplicated", "manifest-counts", "manifest-digits",
 ]
 
