@@ -145,6 +145,11 @@ def _worker(conn) -> None:
         conn.close()
 
 
+def _worker_died(p) -> ComputeError:
+    p.join(5)
+    return ComputeError(f"a worker process ended unexpectedly (exit status {p.exitcode}); nothing was written")
+
+
 def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
     """Chunk i is computed by worker i % jobs and read back in chunk order.
 
@@ -172,16 +177,17 @@ def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Sh
             procs.append(p)
             conns.append(mine)
         for k, conn in enumerate(conns):
-            conn.send(work[k::jobs])
+            try:
+                conn.send(work[k::jobs])
+            except OSError:
+                raise _worker_died(procs[k]) from None
         for i in range(len(work)):
             k = i % jobs
             try:
-                yield conns[k].recv()
-            except EOFError:
-                procs[k].join(5)
-                raise ComputeError(
-                    f"a worker process ended unexpectedly (exit status {procs[k].exitcode}); nothing was written"
-                ) from None
+                result = conns[k].recv()
+            except (EOFError, OSError):  # closed, or reset when it died with data unread
+                raise _worker_died(procs[k]) from None
+            yield result
     finally:
         with signals_held():  # a second signal must not cut the clean-up short
             for p in procs:

@@ -515,3 +515,47 @@ def test_a_file_added_to_the_site_during_the_build_is_kept(tmp_path: Path, capsy
     assert status == 2 and len(err) == 1 and "'notes.txt'" in err[0], err
     assert (out / "notes.txt").read_bytes() == b"written while the build computed\n"
     assert _hidden(tmp_path) == []
+
+
+def _session_processes(sid: int) -> dict[int, tuple[int, str]]:
+    """pid -> (parent pid, command line) of the processes in session ``sid`` (those this test started)."""
+    found = {}
+    for entry in Path("/proc").iterdir():
+        if not entry.name.isdigit():
+            continue
+        try:
+            stat = (entry / "stat").read_text().rsplit(")", 1)[1].split()
+            cmdline = (entry / "cmdline").read_bytes().replace(b"\0", b" ").decode(errors="replace")
+        except OSError:
+            continue
+        if int(stat[3]) == sid and stat[0] != "Z":  # fields after the name: state, ppid, pgrp, session
+            found[int(entry.name)] = (int(stat[1]), cmdline)
+    return found
+
+
+@pytest.mark.slow
+@pytest.mark.skipif(not Path("/proc/self/stat").exists(), reason="needs /proc")
+def test_a_worker_that_dies_alone_ends_the_build_with_one_line(tmp_path: Path, capsys) -> None:
+    out = tmp_path / "site"
+    assert _cli(capsys, "build", "--out", str(out), *SMALL, "--quiet")[0] == 0
+    before = _snapshot(out)
+    proc = _popen(out, *MEDIUM)
+    deadline = time.monotonic() + 30
+    victim = None
+    while victim is None and proc.poll() is None and time.monotonic() < deadline:  # bounded in time
+        procs = _session_processes(proc.pid)
+        servers = {pid for pid, (_, cmd) in procs.items() if "forkserver" in cmd}
+        workers = [pid for pid, (ppid, _) in procs.items() if ppid in servers or (ppid == proc.pid and pid not in servers
+                   and "resource_tracker" not in procs[pid][1] and "forkserver" not in procs[pid][1])]
+        victim = workers[0] if workers else None
+        time.sleep(0.05)
+    if victim is None:
+        proc.communicate(timeout=120)
+        pytest.skip("the build ended before a worker could be found")
+    os.kill(victim, signal.SIGKILL)  # a process of the build this test started
+    _, err = proc.communicate(timeout=60)
+    if proc.returncode == 0:
+        pytest.skip("the worker had already finished its share")
+    assert proc.returncode == 2, (proc.returncode, err)
+    assert err.count("\n") == 1 and "worker process ended unexpectedly" in err and "Traceback" not in err, err
+    assert _snapshot(out) == before and _hidden(tmp_path) == []
