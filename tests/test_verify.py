@@ -402,3 +402,13 @@ def test_malformed_json_tables_in_a_same_version_site_are_differences(capsys, si
     status, out, err = _run(capsys, site)
     assert status == 1 and err == "", (out, err)
     assert any(line.startswith("  data/6j-jmax-1.json line ") for line in out), out
+
+
+def test_a_listed_file_replaced_by_a_symlink_is_reported(capsys, site: Path, tmp_path: Path) -> None:
+    # the same bytes, but kept outside the site, where they can change unseen
+    outside = tmp_path / "elsewhere.csv"
+    outside.write_bytes((site / "data" / "cg-1x1.csv").read_bytes())
+    (site / "data" / "cg-1x1.csv").unlink()
+    (site / "data" / "cg-1x1.csv").symlink_to(outside)
+    status, out, _ = _run(capsys, site)
+    assert status == 1 and "  data/cg-1x1.csv: a symbolic link, not a file of the site" in out, out
