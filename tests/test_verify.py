@@ -412,3 +412,10 @@ def test_a_listed_file_replaced_by_a_symlink_is_reported(capsys, site: Path, tmp
     (site / "data" / "cg-1x1.csv").symlink_to(outside)
     status, out, _ = _run(capsys, site)
     assert status == 1 and "  data/cg-1x1.csv: a symbolic link, not a file of the site" in out, out
+
+
+def test_a_forged_recipe_far_larger_than_the_site_is_not_rebuilt(capsys, site: Path) -> None:
+    _edit_manifest(site, lambda d: d["recipe"]["cg"].update(max_j="40"))  # hours of computing, if believed
+    _forge_sums(site)
+    status, out, _ = _run(capsys, site)
+    assert status == 1 and any("far more than" in line and "not rebuilt" in line for line in out), out
