@@ -21,6 +21,7 @@ __all__ = ["main"]
 EXIT_OK = 0
 EXIT_FAILED = 1
 EXIT_USAGE = 2
+_AS_PROGRAM = False
 
 _VALUE_FLAGS_WITH_ARG = ("--digits", "--max-j")
 _VALUE_FLAGS = ("--latex", "--json", "-h", "--help")
@@ -172,6 +173,8 @@ def _quick_value_call(argv: list[str]):
 
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; return the exit status."""
+    global _AS_PROGRAM
+    _AS_PROGRAM = argv is None  # run as the program (not called by a test): it exits after this
     argv = list(sys.argv[1:] if argv is None else argv)
     try:
         command = _extra_command(argv)  # rotation functions, recouple, lsjj: tablegen/commands/
@@ -310,8 +313,10 @@ def _run_build(ns) -> int:
     if ns.jobs is not None and ns.jobs < 1:
         raise _UsageError(f"tablegen build: argument --jobs = {ns.jobs}: must be >= 1")
     recipe = _build_recipe(ns)
-    # a terminated build must clean its staging folder: turn SIGTERM into an exception
-    previous = signal.signal(signal.SIGTERM, _raise_interrupt)
+    from .interrupts import after_stop, stop_once
+
+    # a terminated build must clean up: the first SIGINT/SIGTERM becomes an exception, later ones wait
+    previous = {s: signal.signal(s, stop_once) for s in (signal.SIGINT, signal.SIGTERM)}
     try:
         return _build_with_progress(ns, recipe, build)
     except TablegenError:
@@ -320,7 +325,9 @@ def _run_build(ns) -> int:
         where = f" {exc.filename!r}" if getattr(exc, "filename", None) else ""
         raise _UsageError(f"tablegen: error: cannot write{where}: {exc.strerror or exc}") from None
     finally:
-        signal.signal(signal.SIGTERM, previous)
+        for s, handler in previous.items():
+            signal.signal(s, handler)
+        after_stop(process_ends=_AS_PROGRAM)
 
 
 def _build_with_progress(ns, recipe, build) -> int:
@@ -346,10 +353,6 @@ def _build_with_progress(ns, recipe, build) -> int:
             f"data digest {result.data_digest}"
         )
     return EXIT_OK
-
-
-def _raise_interrupt(signum, frame):  # pragma: no cover - signal handler
-    raise KeyboardInterrupt
 
 
 def _run_verify(ns) -> int:

@@ -10,20 +10,22 @@ that is not a tablegen site is refused, never wiped.
 
 from __future__ import annotations
 
+import errno
 import fcntl
 import hashlib
 import json
 import os
 import re
 import shutil
-import signal
-import threading
-from contextlib import contextmanager
+import stat
 from pathlib import Path, PurePosixPath
 
 from .errors import OutputError
+from .interrupts import drop_pending, signals_held
 
-__all__ = ["Staging", "check_target", "is_tablegen_site", "MANIFEST", "SUMS", "MANIFEST_FORMAT", "sha256_hex"]
+__all__ = [
+    "Staging", "check_target", "is_tablegen_site", "seal", "MANIFEST", "SUMS", "MANIFEST_FORMAT", "sha256_hex",
+]
 
 MANIFEST = "manifest.json"
 SUMS = "SHA256SUMS"
@@ -31,6 +33,8 @@ MANIFEST_FORMAT = "tablegen-manifest/1"
 _STAGING_TAG = ".tablegen-staging-"
 _OLD_TAG = ".tablegen-old-"
 _LOCK_TAG = ".tablegen-lock"
+#: errno values that mean the disk, not the program, failed a write
+_WRITE_FAULTS = {errno.ENOSPC, errno.EDQUOT, errno.EROFS, errno.EIO, errno.EACCES, errno.EPERM, errno.EFBIG}
 
 
 def sha256_hex(data: bytes) -> str:
@@ -94,6 +98,65 @@ def _raise(exc: OSError) -> None:
     raise exc
 
 
+def _first_unremovable(folder: Path) -> str | None:
+    """A folder of the old site this user could not empty (read-only and not ours), or None.
+
+    Checked before computing, so that replacing the site can never leave a
+    half-removed copy of it behind.
+    """
+    me = os.geteuid()
+    for root, subdirs, _ in os.walk(folder, onerror=_raise):
+        subdirs[:] = sorted(d for d in subdirs if not os.path.islink(os.path.join(root, d)))
+        if me != 0 and not os.access(root, os.W_OK | os.X_OK) and os.stat(root).st_uid != me:
+            rel = Path(root).relative_to(folder).as_posix()
+            return "." if rel == "." else rel + "/"
+    return None
+
+
+def _remove_tree(path: Path) -> None:
+    """Remove a folder tablegen made or replaced, read-only subfolders included."""
+    tried: set[str] = set()
+
+    def _writable(folder: str) -> None:
+        os.chmod(folder, stat.S_IMODE(os.lstat(folder).st_mode) | stat.S_IRWXU)
+
+    def make_writable_and_retry(func, name, exc_info) -> None:
+        if name in tried:
+            return  # tried once already; the caller's check that the folder is gone reports it
+        tried.add(name)
+        try:
+            if func in (os.unlink, os.rmdir):  # the folder holding ``name`` is read-only
+                _writable(os.path.dirname(name))
+                func(name)
+            else:  # ``name`` itself cannot be listed or opened
+                _writable(name)
+                shutil.rmtree(name, onerror=make_writable_and_retry)
+        except OSError:
+            pass
+
+    if path.is_dir() and not path.is_symlink():
+        try:
+            _writable(str(path))
+        except OSError:
+            pass
+        shutil.rmtree(path, onerror=make_writable_and_retry)
+
+
+def check_room(target: Path, need: int) -> None:
+    """Refuse before computing if the target's disk lacks room for about ``need`` bytes."""
+    try:
+        st = os.statvfs(target.parent)
+    except OSError:
+        return  # unknowable here; a full disk is still caught while writing
+    free = st.f_bavail * st.f_frsize
+    if need > free:
+        raise OutputError(
+            target,
+            f"its disk has {free / 1e6:.1f} MB free, but the new site needs about {need / 1e6:.1f} MB "
+            "(the old site stays until the new one is complete); free some space or choose another --out",
+        )
+
+
 def is_tablegen_site(folder: Path) -> bool:
     """True if folder is a site tablegen wrote: SHA256SUMS and manifest agree, nothing unlisted."""
     listed = _site_listing(Path(folder))
@@ -146,6 +209,13 @@ def check_target(out_dir: str | os.PathLike, discard_extra: bool = False) -> Pat
                     target,
                     f"holds {foreign!r}, which {SUMS} does not list; refusing to delete it "
                     "(move it away, or pass --discard-extra to replace the whole folder)",
+                )
+            locked = _first_unremovable(target)
+            if locked is not None:
+                raise OutputError(
+                    target,
+                    f"holds the read-only folder {locked!r} of another user, so the old site could not be "
+                    "removed after the swap; make it writable or choose another --out",
                 )
     except PermissionError as exc:
         raise OutputError(target, f"cannot be read ({exc.strerror})") from None
@@ -206,11 +276,27 @@ def _remove_leftovers(target: Path) -> None:
     pattern = re.compile(re.escape(f".{target.name}") + r"\.tablegen-(staging|old)-\d+")
     for p in parent.iterdir():
         if pattern.fullmatch(p.name) and p.is_dir() and not p.is_symlink():
-            shutil.rmtree(p, ignore_errors=True)
+            _remove_tree(p)
+
+
+def seal(manifest: dict, sums: dict[str, str], sizes: dict[str, int]) -> tuple[bytes, bytes]:
+    """The bytes of manifest.json and SHA256SUMS for a site whose other files have these digests and sizes."""
+    body = dict(manifest)
+    body["files"] = len(sums) + 1  # + the manifest itself; SHA256SUMS lists both
+    body["bytes"] = sum(sizes.values())
+    manifest_bytes = (json.dumps(body, indent=1, ensure_ascii=False) + "\n").encode("utf-8")
+    listing = dict(sums)
+    listing[MANIFEST] = sha256_hex(manifest_bytes)
+    lines = "".join(f"{digest}  {path}\n" for path, digest in sorted(listing.items()))
+    return manifest_bytes, lines.encode("utf-8")
 
 
 class Staging:
-    """Context manager: collect a site in a staging folder, then swap it in."""
+    """Context manager: lock the target, collect a site in a staging folder, then swap it in.
+
+    The lock is taken on entering, before anything is computed, so a second
+    build of the same target is refused at once rather than after its work.
+    """
 
     def __init__(self, out_dir: str | os.PathLike, discard_extra: bool = False) -> None:
         self.target = check_target(out_dir, discard_extra)
@@ -224,23 +310,44 @@ class Staging:
 
     def __enter__(self) -> "Staging":
         try:
-            with _signals_held():
+            with signals_held():
                 self._lock.acquire(self.target)
                 check_target(self.target, self._discard_extra)  # again, now that no other build can change it
                 _remove_leftovers(self.target)
                 self._dir.mkdir()
-        except BaseException:
-            with _signals_held():
-                shutil.rmtree(self._dir, ignore_errors=True)
+        except BaseException as exc:
+            with signals_held():
+                _remove_tree(self._dir)
                 self._lock.release()
+            if self._is_write_fault(exc):
+                raise self._fault(exc) from None
             raise
         return self
 
     def __exit__(self, exc_type, exc, tb) -> None:
-        with _signals_held():  # a second Ctrl-C must not cut the clean-up short
+        with signals_held():  # a second Ctrl-C must not cut the clean-up short
             if exc_type is not None and not self.installed:
-                shutil.rmtree(self._dir, ignore_errors=True)
+                _remove_tree(self._dir)
             self._lock.release()
+            if exc_type is not None and issubclass(exc_type, KeyboardInterrupt):
+                drop_pending()  # already stopping: a second Ctrl-C or SIGTERM changes nothing
+        if self._is_write_fault(exc):
+            raise self._fault(exc) from None
+
+    def _is_write_fault(self, exc: BaseException | None) -> bool:
+        if not isinstance(exc, OSError) or isinstance(exc, OutputError):
+            return False
+        name = str(getattr(exc, "filename", "") or "")
+        return exc.errno in _WRITE_FAULTS or name.startswith(str(self._dir)) or name.startswith(str(self.target))
+
+    def _fault(self, exc: OSError) -> OutputError:
+        """A file-system failure while building, as one line about the target (not the staging path)."""
+        reason = "its disk is full" if exc.errno == errno.ENOSPC else (exc.strerror or str(exc))
+        kept = "the new site was installed" if self.installed else "the previous contents are untouched"
+        return OutputError(self.target, f"cannot be written ({reason}); nothing was half-written, {kept}")
+
+    def check_room(self, need: int) -> None:
+        check_room(self.target, need)
 
     def write(self, path: str, data: bytes) -> None:
         """Write one file of the site (path relative to the site root, '/'-separated)."""
@@ -256,20 +363,18 @@ class Staging:
 
     def finish(self, manifest: dict) -> None:
         """Add manifest.json and SHA256SUMS, then replace the target folder."""
-        body = dict(manifest)
-        body["files"] = len(self.sums) + 1  # + the manifest itself; SHA256SUMS lists both
-        body["bytes"] = sum(self.sizes.values())
-        self.write(MANIFEST, (json.dumps(body, indent=1, ensure_ascii=False) + "\n").encode("utf-8"))
-        lines = "".join(f"{digest}  {path}\n" for path, digest in sorted(self.sums.items()))
+        manifest_bytes, sums_bytes = seal(manifest, self.sums, self.sizes)
+        self.write(MANIFEST, manifest_bytes)
         with open(self._dir / SUMS, "wb") as fh:
-            fh.write(lines.encode("utf-8"))
+            fh.write(sums_bytes)
+        check_target(self.target, self._discard_extra)  # a file the user added while we computed is not ours to delete
         self._swap()
 
     def _swap(self) -> None:
         target = self.target
         old = target.parent / f".{target.name}{_OLD_TAG}{os.getpid()}"
         # no interrupt may fall between the two renames: hold SIGINT/SIGTERM until both are done
-        with _signals_held():
+        with signals_held():
             if target.exists():
                 # the target was checked to be empty or a tablegen site
                 os.rename(target, old)
@@ -280,18 +385,11 @@ class Staging:
                     os.rename(old, target)  # put the previous site back
                 raise
             self.installed = True
-            shutil.rmtree(old, ignore_errors=True)
-
-
-@contextmanager
-def _signals_held():
-    """Defer SIGINT and SIGTERM (where the platform allows) for a critical section."""
-    held = {signal.SIGINT, signal.SIGTERM}
-    can_block = hasattr(signal, "pthread_sigmask") and threading.current_thread() is threading.main_thread()
-    if can_block:
-        previous = signal.pthread_sigmask(signal.SIG_BLOCK, held)
-    try:
-        yield
-    finally:
-        if can_block:
-            signal.pthread_sigmask(signal.SIG_SETMASK, previous)
+            _remove_tree(old)
+            # the new site is in place: a signal that came during the swap must not
+            # make the outcome look like an interrupted build
+            drop_pending()
+        if old.exists():  # checked to be removable beforehand; say so if the disk disagreed
+            raise OutputError(
+                target, f"the new site is installed, but the previous one could not be removed from {str(old)!r}"
+            )

@@ -17,7 +17,8 @@ SMALL = {"cg": {"max_j": 1}, "3j": {"max_j": 1}, "6j": {"max_j": 1}, "9j": {"max
 
 @pytest.fixture(scope="module")
 def rendered():
-    return render_site(recipe_from_mapping(SMALL))
+    site = render_site(recipe_from_mapping(SMALL), jobs=1)
+    return dict(site.files), site.manifest
 
 
 def test_a_built_site_has_no_broken_link(rendered):

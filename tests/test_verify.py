@@ -6,6 +6,7 @@ come from the selection rules and closed forms named beside each case.
 
 from __future__ import annotations
 
+import json
 import re
 import shutil
 from pathlib import Path
@@ -68,7 +69,9 @@ def test_fresh_build_verifies(capsys, built: Path) -> None:
     report = verify_site(str(built))
     files = [p for p in built.rglob("*") if p.is_file()]
     assert report.files == len(files) - 1  # every file but SHA256SUMS itself is listed
-    assert report.values > 100
+    counts = json.loads((built / "manifest.json").read_text(encoding="utf-8"))["counts"]
+    assert report.values >= sum(counts.values()) > 50  # every tabulated value, W companions too
+    assert "compared byte for byte" in out[0]
     assert f"{report.files} files" in out[0] and f"{report.values} values" in out[0]
 
 
@@ -98,6 +101,7 @@ def test_changed_value_is_reported(capsys, site: Path, rel, old, new, words, res
     assert status == 1
     assert not out[0].endswith(": OK")
     value_problems = [line for line in out[1:] if line.strip().startswith(rel) and words[0] in line]
+    assert len(max(out, key=len)) < 400, out  # lines are cut, never thousands of characters
     assert value_problems, out
     assert all(all(w in line for w in words) for line in value_problems), value_problems
     checksum = [line for line in out if "checksum mismatch" in line]
@@ -118,7 +122,7 @@ def test_missing_values_txt_is_reported(capsys, site: Path) -> None:
     (site / "values.txt").unlink()
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert "  missing file: values.txt" in out
+    assert out.count("  missing file: values.txt") == 1, out  # named once, not once per check
 
 
 def test_extra_file_is_reported(capsys, site: Path) -> None:
@@ -213,4 +217,205 @@ def test_a_deleted_table_row_is_noticed_even_when_resealed(capsys, site: Path) -
     _reseal(site, "data/cg-1x1.csv")
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert any("values.txt" in line and "cg 1 1 1 -1 0 0" in line for line in out), out
+    assert any("data/cg-1x1.csv line 18, value <1 1; 1 -1 | 0 0>" in line and "(19 lines" in line for line in out), out
+
+
+# -- forgeries: the forger recomputes every line of SHA256SUMS ---------------------------------------
+def _forge_sums(site: Path) -> None:
+    """Rewrite SHA256SUMS for every file, as a careful forger would."""
+    files = sorted(p.relative_to(site).as_posix() for p in site.rglob("*") if p.is_file() and p.name != SUMS)
+    (site / SUMS).write_text("".join(f"{sha256_hex((site / f).read_bytes())}  {f}\n" for f in files), encoding="utf-8")
+
+
+def _sub_first(site: Path, rel: str, pattern: str, repl) -> None:
+    path = site / rel
+    text = path.read_text(encoding="utf-8")
+    new, n = re.subn(pattern, repl, text, count=1)
+    assert n == 1 and new != text, (rel, pattern)
+    path.write_text(new, encoding="utf-8")
+
+
+def _lines(site: Path, rel: str) -> list[str]:
+    return (site / rel).read_text(encoding="utf-8").splitlines(keepends=True)
+
+
+def _set_lines(site: Path, rel: str, lines: list[str]) -> None:
+    (site / rel).write_text("".join(lines), encoding="utf-8")
+
+
+def _edit_manifest(site: Path, change) -> None:
+    doc = json.loads((site / "manifest.json").read_text(encoding="utf-8"))
+    change(doc)
+    (site / "manifest.json").write_text(json.dumps(doc, indent=1, ensure_ascii=False) + "\n", encoding="utf-8")
+
+
+# {1 1 1; 1 1/2 1/2} = 1/6 and its W (Edmonds 1957, Table 5; from memory) sit in 6j-jmax-1;
+# <1 1; 1 -1 | 0 0> = 1/sqrt(3) (common practice, no source) in cg-1x1.
+_ROW_6J = "1,1/2,1/2,1,1/2,1/2,1/6,1/36,0.166666666666667,3,1 1/2 1/2 1 1/2 1/2,-1\n"
+_ROW_CG = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
+
+
+def _delete_row_everywhere(site: Path) -> None:
+    """The cg row removed from CSV, JSON and values.txt; every digest and checksum updated to match."""
+    _set_lines(site, "data/cg-1x1.csv", [l for l in _lines(site, "data/cg-1x1.csv") if l != _ROW_CG])
+    _set_lines(site, "data/cg-1x1.json", [l for l in _lines(site, "data/cg-1x1.json")
+                                            if '"args":["1","1","1","-1","0","0"]' not in l])
+    _set_lines(site, "values.txt", [l for l in _lines(site, "values.txt") if l != "cg 1 1 1 -1 0 0 sqrt(1/3)\n"])
+    old = json.loads((site / "manifest.json").read_text(encoding="utf-8"))["data_digest"]
+    new = sha256_hex((site / "values.txt").read_bytes())
+    for p in site.rglob("*"):
+        if p.is_file() and p.suffix in (".html", ".json", ".bib", ".tex", ".csv", ".txt"):
+            text = p.read_text(encoding="utf-8")
+            if old in text or old[:12] in text:
+                p.write_text(text.replace(old, new).replace(old[:12], new[:12]), encoding="utf-8")
+
+
+def _other_hex(m: re.Match) -> str:
+    """A plausible forged digest: one hex digit changed."""
+    return m.group(1) + ("0" if m.group(2) != "0" else "1")
+
+
+FORGERIES = {
+    # name: (forge(site), the file a problem line must name)
+    "html-value": (lambda s: _sub_first(s, "6j/jmax-1.html", r"0\.166666666666667", "0.166666666666668"), "6j/jmax-1.html"),
+    "latex-fragment-value": (lambda s: _sub_first(s, "latex/6j-jmax-1.tex", r"\\frac\{1\}\{6\}", r"\\frac{1}{7}"), "latex/6j-jmax-1.tex"),
+    "latex-sheet-title": (lambda s: _sub_first(s, "latex/6j-jmax-1-sheet.tex", r"largest \$j = 1\$", "largest $j = 2$"), "latex/6j-jmax-1-sheet.tex"),
+    "cite-bib-count": (lambda s: _sub_first(s, "cite.bib", r"cg: 56 values", "cg: 57 values"), "cite.bib"),
+    "cite-bib-digest": (lambda s: _sub_first(s, "cite.bib", r"(SHA-256 of values.txt\): )([0-9a-f])", _other_hex), "cite.bib"),
+    "page-footer-digest": (lambda s: _sub_first(s, "index.html", r'(values.txt">)([0-9a-f])', _other_hex), "index.html"),
+    "csv-w-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.csv", re.escape(_ROW_6J), _ROW_6J.replace(",-1\n", ",1\n")), "data/6j-jmax-1.csv"),
+    "json-w-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.json", r'"sign":-1', '"sign":1'), "data/6j-jmax-1.json"),
+    "json-form-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.json", r'(\["[^"]+",)1\]', r"\1-1]"), "data/6j-jmax-1.json"),
+    "row-deleted-everywhere": (_delete_row_everywhere, "data/cg-1x1.csv"),
+    "csv-row-removed-not-json": (
+        lambda s: _set_lines(s, "data/cg-1x1.csv", [l for l in _lines(s, "data/cg-1x1.csv") if l != _ROW_CG]),
+        "data/cg-1x1.csv"),
+    "row-duplicated": (
+        lambda s: _set_lines(s, "data/cg-1x1.csv", _lines(s, "data/cg-1x1.csv") + [_ROW_CG]), "data/cg-1x1.csv"),
+    "rows-reordered": (
+        lambda s: _set_lines(s, "data/cg-1x1.csv", _lines(s, "data/cg-1x1.csv")[:1] + _lines(s, "data/cg-1x1.csv")[1:][::-1]),
+        "data/cg-1x1.csv"),
+    "manifest-counts": (lambda s: _edit_manifest(s, lambda d: d["counts"].update(cg=57)), "manifest.json"),
+    "manifest-recipe": (lambda s: _edit_manifest(s, lambda d: d["recipe"]["cg"].update(max_j="1/2")), "manifest.json"),
+    "manifest-version": (lambda s: _edit_manifest(s, lambda d: d.update(version="0.0.9")), "manifest.json"),
+    "manifest-version-removed": (lambda s: _edit_manifest(s, lambda d: d.pop("version")), "manifest.json"),
+    "manifest-version-and-counts": (
+        lambda s: _edit_manifest(s, lambda d: (d.update(version="0.0.9"), d["counts"].update(cg=57))), "manifest.json"),
+    "manifest-digits": (lambda s: _edit_manifest(s, lambda d: d["recipe"].update(digits=14)), "manifest.json"),
+}
+
+
+@pytest.mark.parametrize("name", sorted(FORGERIES))
+def test_forgery_with_recomputed_checksums_is_caught(capsys, site: Path, name: str) -> None:
+    forge, rel = FORGERIES[name]
+    forge(site)
+    _forge_sums(site)
+    status, out, err = _run(capsys, site)
+    assert status == 1, out
+    assert err == "" and not out[0].endswith(": OK")
+    assert not any("checksum mismatch" in line for line in out), out  # the sums are consistent ...
+    assert any(line.strip().startswith(rel) for line in out[1:]), out  # ... but the forged file is named
+    assert len(max(out, key=len)) < 400, out
+
+
+def test_a_forged_version_is_named_as_false(capsys, site: Path) -> None:
+    FORGERIES["manifest-version"][0](site)
+    _forge_sums(site)
+    status, out, _ = _run(capsys, site)
+    assert status == 1
+    assert any("version '0.0.9' is false" in line for line in out), out
+
+
+def test_a_difference_names_the_value_and_the_field(capsys, site: Path) -> None:
+    FORGERIES["csv-w-sign"][0](site)
+    _forge_sums(site)
+    _, out, _ = _run(capsys, site)
+    line = next(l for l in out if "data/6j-jmax-1.csv" in l)
+    assert "value {1 1/2 1/2; 1 1/2 1/2}" in line and ", w_sign:" in line, line
+
+
+# -- a site made by another version: every value recomputed instead ---------------------------------
+@pytest.fixture()
+def other_version(monkeypatch):
+    """Pretend the installed tablegen is a later version: the old site can no longer match byte for byte."""
+    import tablegen.build
+    import tablegen.verify
+
+    monkeypatch.setattr(tablegen.build, "__version__", "9.0.0")
+    monkeypatch.setattr(tablegen.verify, "__version__", "9.0.0")
+
+
+def test_another_versions_site_is_checked_value_by_value(capsys, site: Path, other_version) -> None:
+    status, out, _ = _run(capsys, site)
+    assert status == 0, out
+    assert "value by value" in out[0] and out[0].endswith(": OK")
+    report = verify_site(str(site))
+    assert any("made by tablegen 0.1.0, this is tablegen 9.0.0" in n for n in report.notes)
+    assert report.values > 200  # CSV, JSON and values.txt each recomputed
+
+
+VALUE_FORGERIES = [
+    "html-value", "cite-bib-digest", "page-footer-digest", "csv-w-sign", "json-w-sign", "json-form-sign", "row-deleted-everywhere", "csv-row-removed-not-json",
+    "row-duplicated", "manifest-counts", "manifest-digits",
+]
+
+
+@pytest.mark.parametrize("name", VALUE_FORGERIES)
+def test_value_by_value_catches_data_forgeries(capsys, site: Path, other_version, name: str) -> None:
+    forge, rel = FORGERIES[name]
+    forge(site)
+    _forge_sums(site)
+    status, out, err = _run(capsys, site)
+    assert status == 1 and "value by value" in out[0], out
+    assert err == ""
+    expected = {"row-deleted-everywhere": "manifest.json", "manifest-digits": "data/"}.get(name, rel)
+    assert any(line.strip().startswith(expected) for line in out[1:]), out
+
+
+@pytest.mark.parametrize("body", ['"rows": 5', '"rows": [{"args": null, "exact": "1", "square": "1", "decimal": "1"}]',
+                                  '"rows": [5]', '"rows": [{"args": [1], "exact": 1, "square": 1, "decimal": 1, "forms": 3, "w": 1}]'])
+def test_malformed_json_tables_are_problems_not_tracebacks(capsys, site: Path, other_version, body: str) -> None:
+    path = site / "data" / "cg-1x1.json"
+    doc = path.read_text(encoding="utf-8")
+    start = doc.index('"rows": [')
+    path.write_text(doc[:start] + body + "\n}\n", encoding="utf-8")
+    _forge_sums(site)
+    status, out, err = _run(capsys, site)
+    assert status == 1 and "Traceback" not in err, (out, err)
+    assert any(line.strip().startswith("data/cg-1x1.json") for line in out[1:]), out
+
+
+def test_a_huge_forged_value_gives_a_short_line(capsys, site: Path, other_version) -> None:
+    _sub_first(site, "data/cg-1x1.csv", re.escape("1,1,1,-1,0,0,sqrt(1/3),"), "1,1,1,-1,0,0," + "7" * 5000 + ",")
+    _forge_sums(site)
+    status, out, _ = _run(capsys, site)
+    assert status == 1 and any("<1 1; 1 -1 | 0 0>: exact" in line for line in out), out
+    assert len(max(out, key=len)) < 400
+
+
+@pytest.mark.parametrize("body", ['"rows": 5', '"rows": [{"args": null}]'])
+def test_malformed_json_tables_in_a_same_version_site_are_differences(capsys, site: Path, body: str) -> None:
+    path = site / "data" / "6j-jmax-1.json"
+    doc = path.read_text(encoding="utf-8")
+    path.write_text(doc[: doc.index('"rows": [')] + body + "\n}\n", encoding="utf-8")
+    _forge_sums(site)
+    status, out, err = _run(capsys, site)
+    assert status == 1 and err == "", (out, err)
+    assert any(line.startswith("  data/6j-jmax-1.json line ") for line in out), out
+
+
+def test_a_listed_file_replaced_by_a_symlink_is_reported(capsys, site: Path, tmp_path: Path) -> None:
+    # the same bytes, but kept outside the site, where they can change unseen
+    outside = tmp_path / "elsewhere.csv"
+    outside.write_bytes((site / "data" / "cg-1x1.csv").read_bytes())
+    (site / "data" / "cg-1x1.csv").unlink()
+    (site / "data" / "cg-1x1.csv").symlink_to(outside)
+    status, out, _ = _run(capsys, site)
+    assert status == 1 and "  data/cg-1x1.csv: a symbolic link, not a file of the site" in out, out
+
+
+def test_a_forged_recipe_far_larger_than_the_site_is_not_rebuilt(capsys, site: Path) -> None:
+    _edit_manifest(site, lambda d: d["recipe"]["cg"].update(max_j="40"))  # hours of computing, if believed
+    _forge_sums(site)
+    status, out, _ = _run(capsys, site)
+    assert status == 1 and any("far more than" in line and "not rebuilt" in line for line in out), out
