@@ -13,31 +13,29 @@ Nothing registers itself on import: the list below is the registry.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-from typing import Callable, Sequence
+from collections import namedtuple
 
-from ..values import Surd
+# Records are named tuples, not dataclasses: the one-value command imports
+# this module, and dataclasses (with inspect, ast, typing) would double its
+# start-up time.  Annotations stay strings (PEP 563), so typing is not needed.
 
 __all__ = ["Kind", "Notation", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
 
 
-@dataclass(frozen=True, slots=True)
-class ZeroRule:
+class ZeroRule(namedtuple("ZeroRule", "id text")):
     """Why a value is exactly zero: a short rule id and a sentence.
 
     ids: "triangle", "triad-sum", "m-sum", "m-range", "parity", "symmetry",
     "cancellation".  ``str()`` gives "id: text", the form the CLI prints.
     """
 
-    id: str
-    text: str
+    __slots__ = ()
 
     def __str__(self) -> str:
         return f"{self.id}: {self.text}"
 
 
-@dataclass(frozen=True, slots=True)
-class Notation:
+class Notation(namedtuple("Notation", "style groups brackets name", defaults=("", ""))):
     """How a symbol is written, as data: renderers turn it into text, MathML or LaTeX.
 
     style:
@@ -47,14 +45,16 @@ class Notation:
     groups: argument positions per row / group, in writing order.
     """
 
-    style: str
-    groups: tuple[tuple[int, ...], ...]
-    brackets: str = ""  # "()" or "{}" for arrays
-    name: str = ""  # function name for "function"
+    __slots__ = ()
 
 
-@dataclass(frozen=True, slots=True)
-class Kind:
+class Kind(
+    namedtuple(
+        "Kind",
+        "key title arguments j_positions parse doubled zero_rule notation members max_j cost_power seconds_at_max_j triads",
+        defaults=(None, 2000, 2, 1.0, ()),
+    )
+):
     """One kind of value.
 
     key: the name the CLI, data files and values.txt use ("cg", "3j", "6j", "w", "9j").
@@ -68,19 +68,21 @@ class Kind:
     members(*t): the symmetry class of an allowed symbol as [(arguments, sign)] with
         value(member) = sign * value(t), canonical (largest) form first; None if the
         kind has no tabulated symmetry class.
+    max_j: the one-value limit: the default largest j of a lookup, chosen so that
+        every value within it returns in about a second (``--max-j`` raises it).
+    cost_power, seconds_at_max_j: the time of one value grows about like
+        seconds_at_max_j * (j / max_j) ** cost_power (measured on the worst
+        arguments, all j equal); the size guard and the --max-j warning use it.
+    triads: argument positions of every triad of j's (a symbol is admissible when all couple).
     """
 
-    key: str
-    title: str
-    arguments: tuple[str, ...]
-    j_positions: tuple[int, ...]
-    parse: Callable[[Sequence[object], "int | None"], tuple[int, ...]]
-    doubled: Callable[..., Surd]
-    zero_rule: Callable[[tuple[int, ...]], "ZeroRule | None"]
-    notation: Notation
-    members: "Callable[..., list[tuple[tuple[int, ...], int]]] | None" = None
+    __slots__ = ()
 
-    def text(self, t: Sequence[int]) -> str:
+    def seconds(self, tj: int) -> float:
+        """Rough time of one value whose largest doubled j is ``tj`` (0 below j = 1)."""
+        return self.seconds_at_max_j * (tj / (2 * self.max_j)) ** self.cost_power
+
+    def text(self, t: "Sequence[int]") -> str:
         """The symbol in plain text: '<1 1; 1 -1 | 0 0>', '{1 1 1; 1 1 1}', 'W(a b c d; e f)'."""
         from ..notation import half_text
 
@@ -92,7 +94,7 @@ class Kind:
             return f"{n.name}({'; '.join(parts)})"
         return f"{n.brackets[0]}{'; '.join(parts)}{n.brackets[1]}"
 
-    def value(self, *values: object, max_j: "int | None" = None) -> Surd:
+    def value(self, *values: object, max_j: "int | None" = None) -> "Surd":
         """The value from quantum numbers in any accepted form."""
         return self.doubled(*self.parse(values, max_j))
 

@@ -170,6 +170,9 @@ def _parse_w(values, max_j=None) -> tuple[int, ...]:
     return parse_js("w", _W_NAMES, values, max_j)
 
 
+# one value with every j <= 5000 takes at most ~0.8 s (all six j = 5000, measured), about like j**2
+_LIMITS = {"max_j": 5000, "cost_power": 2, "seconds_at_max_j": 0.8}
+
 SIXJ = Kind(
     key="6j",
     title="Wigner 6j symbol",
@@ -180,6 +183,8 @@ SIXJ = Kind(
     zero_rule=_sixj_rule,
     notation=Notation("array", ((0, 1, 2), (3, 4, 5)), "{}"),
     members=sixj_members,
+    triads=_SIXJ_TRIADS,
+    **_LIMITS,
 )
 RACAH_W = Kind(
     key="w",
@@ -190,4 +195,6 @@ RACAH_W = Kind(
     doubled=racah_w2,
     zero_rule=_w_rule,
     notation=Notation("function", ((0, 1, 2, 3), (4, 5)), name="W"),
+    triads=_W_TRIADS,
+    **_LIMITS,
 )
