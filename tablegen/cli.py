@@ -142,8 +142,22 @@ def _parser(commands, wanted, version: str):
         def error(self, message: str):  # type: ignore[override]
             raise UsageError(message)
 
+    class Formatter(argparse.HelpFormatter):
+        """argparse's help layout, measuring the terminal without importing shutil (start-up time)."""
+
+        def __init__(self, prog: str, **kwargs) -> None:
+            if kwargs.get("width") is None:
+                import os
+
+                try:
+                    columns = int(os.environ.get("COLUMNS", "0")) or os.get_terminal_size(1).columns
+                except (OSError, ValueError):
+                    columns = 80
+                kwargs["width"] = max(columns, 40) - 2
+            super().__init__(prog, **kwargs)
+
     parser = Parser(
-        prog="tablegen", allow_abbrev=False,
+        prog="tablegen", allow_abbrev=False, formatter_class=Formatter,
         description="Exact Clebsch-Gordan, 3j, 6j, Racah W and 9j values and reference tables "
         "(Condon-Shortley phase).",
     )
@@ -155,13 +169,13 @@ def _parser(commands, wanted, version: str):
             module = c.load()
             describe = getattr(module, "description", None)
             chosen = sub.add_parser(
-                c.name, help=c.help, allow_abbrev=False,
+                c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter,
                 description=describe() if describe else module.DESCRIPTION,
             )
             module.add_arguments(chosen)
             chosen.set_defaults(run=module.run)
         else:  # listed for help and for the choice of command, never parsed
-            sub.add_parser(c.name, help=c.help, allow_abbrev=False)
+            sub.add_parser(c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter)
     return parser, chosen
 
 

@@ -13,29 +13,61 @@ Nothing registers itself on import: the list below is the registry.
 
 from __future__ import annotations
 
-from collections import namedtuple
+# Records are small slotted classes, not dataclasses or named tuples: the
+# one-value command imports this module, and dataclasses (with inspect, ast,
+# typing) would double its start-up time.  Annotations stay strings (PEP 563).
 
-# Records are named tuples, not dataclasses: the one-value command imports
-# this module, and dataclasses (with inspect, ast, typing) would double its
-# start-up time.  Annotations stay strings (PEP 563), so typing is not needed.
+
+class _Record:
+    """An immutable record: ``_fields`` by position or keyword, ``_defaults`` for the last ones."""
+
+    __slots__ = ()
+    _fields: tuple = ()
+    _defaults: dict = {}
+
+    def __init__(self, *args, **kwargs) -> None:
+        if len(args) > len(self._fields) or not set(kwargs) <= set(self._fields):
+            raise TypeError(f"{type(self).__name__} takes the fields {', '.join(self._fields)}")
+        values = {**self._defaults, **dict(zip(self._fields, args)), **kwargs}
+        missing = [f for f in self._fields if f not in values]
+        if missing:
+            raise TypeError(f"{type(self).__name__} is missing {', '.join(missing)}")
+        for name in self._fields:
+            object.__setattr__(self, name, values[name])
+
+    def __setattr__(self, name: str, value: object) -> None:
+        raise AttributeError(f"{type(self).__name__} is immutable")
+
+    def _values(self) -> tuple:
+        return tuple(getattr(self, f) for f in self._fields)
+
+    def __eq__(self, other: object) -> bool:
+        return type(other) is type(self) and self._values() == other._values()  # type: ignore[attr-defined]
+
+    def __hash__(self) -> int:
+        return hash(self._values())
+
+    def __repr__(self) -> str:
+        return f"{type(self).__name__}({', '.join(f'{f}={getattr(self, f)!r}' for f in self._fields)})"
 
 __all__ = ["Kind", "Notation", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
 
 
-class ZeroRule(namedtuple("ZeroRule", "id text")):
+class ZeroRule(_Record):
     """Why a value is exactly zero: a short rule id and a sentence.
 
     ids: "triangle", "triad-sum", "m-sum", "m-range", "parity", "symmetry",
     "cancellation".  ``str()`` gives "id: text", the form the CLI prints.
     """
 
-    __slots__ = ()
+    __slots__ = ("id", "text")
+    _fields = __slots__
 
     def __str__(self) -> str:
         return f"{self.id}: {self.text}"
 
 
-class Notation(namedtuple("Notation", "style groups brackets name", defaults=("", ""))):
+class Notation(_Record):
     """How a symbol is written, as data: renderers turn it into text, MathML or LaTeX.
 
     style:
@@ -45,16 +77,12 @@ class Notation(namedtuple("Notation", "style groups brackets name", defaults=(""
     groups: argument positions per row / group, in writing order.
     """
 
-    __slots__ = ()
+    __slots__ = ("style", "groups", "brackets", "name")
+    _fields = __slots__
+    _defaults = {"brackets": "", "name": ""}
 
 
-class Kind(
-    namedtuple(
-        "Kind",
-        "key title arguments j_positions parse doubled zero_rule notation members max_j cost_power seconds_at_max_j triads",
-        defaults=(None, 2000, 2, 1.0, ()),
-    )
-):
+class Kind(_Record):
     """One kind of value.
 
     key: the name the CLI, data files and values.txt use ("cg", "3j", "6j", "w", "9j").
@@ -76,7 +104,12 @@ class Kind(
     triads: argument positions of every triad of j's (a symbol is admissible when all couple).
     """
 
-    __slots__ = ()
+    __slots__ = (
+        "key", "title", "arguments", "j_positions", "parse", "doubled", "zero_rule", "notation",
+        "members", "max_j", "cost_power", "seconds_at_max_j", "triads",
+    )
+    _fields = __slots__
+    _defaults = {"members": None, "max_j": 2000, "cost_power": 2, "seconds_at_max_j": 1.0, "triads": ()}
 
     def seconds(self, tj: int) -> float:
         """Rough time of one value whose largest doubled j is ``tj`` (0 below j = 1)."""
@@ -84,7 +117,7 @@ class Kind(
 
     def text(self, t: "Sequence[int]") -> str:
         """The symbol in plain text: '<1 1; 1 -1 | 0 0>', '{1 1 1; 1 1 1}', 'W(a b c d; e f)'."""
-        from ..notation import half_text
+        from ..spins import half_text
 
         n = self.notation
         parts = [" ".join(half_text(t[i]) for i in g) for g in n.groups]

@@ -8,7 +8,6 @@ and the sum over x is a sum of rationals.
 
 from __future__ import annotations
 
-from fractions import Fraction
 from functools import lru_cache
 
 from ..intmath import factorial
@@ -29,6 +28,8 @@ _TRIADS = ((0, 1, 2), (3, 4, 5), (6, 7, 8), (0, 3, 6), (1, 4, 7), (2, 5, 8))
 
 
 def _delta_square(ta: int, tb: int, tc: int) -> Fraction:
+    from fractions import Fraction  # here, not at import: a cg or 6j lookup never needs it
+
     return Fraction(
         factorial((ta + tb - tc) >> 1) * factorial((ta - tb + tc) >> 1) * factorial((tb + tc - ta) >> 1),
         factorial((ta + tb + tc + 2) >> 1),
@@ -44,6 +45,8 @@ def _racah_rational(ta: int, tb: int, tc: int, td: int, te: int, tf: int) -> Fra
     d = 1
     for x in down:
         d *= factorial(x)
+    from fractions import Fraction
+
     return Fraction(n, d)
 
 
@@ -67,6 +70,8 @@ def _ninej_square(*t: int) -> tuple[int, int, int]:
     tj11, tj12, tj13, tj21, tj22, tj23, tj31, tj32, tj33 = t
     lo = max(abs(tj11 - tj33), abs(tj21 - tj32), abs(tj12 - tj23))
     hi = min(tj11 + tj33, tj21 + tj32, tj12 + tj23)
+    from fractions import Fraction
+
     total = Fraction(0)
     for x in range(lo, hi + 1, 2):
         term = (
