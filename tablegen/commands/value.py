@@ -103,7 +103,7 @@ def lookup(k, texts, digits: int, max_j: int | None = None, latex: bool = False)
         "arguments": dict(zip(k.arguments, (half_text(x) for x in t))),
         "symbol": k.text(t),
         "exact": str(value),
-        "square": str(value.squared()),
+        "square": _rational_text(value.squared()),
         "decimal": value.decimal(digits),
         "digits": digits,
         "zero_rule": None if rule is None else str(rule),
@@ -114,6 +114,14 @@ def lookup(k, texts, digits: int, max_j: int | None = None, latex: bool = False)
     if latex:
         record["latex"] = {"root": value.latex("root"), "rational": value.latex("rational")}
     return record
+
+
+def _rational_text(x) -> str:
+    """'p/q' or 'p' of a Fraction, also beyond Python's 4300-digit str() limit (large j)."""
+    from ..intmath import int_text
+
+    n, d = x.numerator, x.denominator
+    return int_text(n) if d == 1 else f"{int_text(n)}/{int_text(d)}"
 
 
 def json_line(record: dict) -> str:
