@@ -84,7 +84,7 @@ def _fail(message: str, exc: BaseException | None, as_json: bool, status: int) -
                 value = getattr(exc, field)
                 error[field] = value if isinstance(value, (int, str)) or value is None else str(value)
         if "value" in error and isinstance(error["value"], str):
-            error["value"] = _short_line(error["value"])
+            error["value"] = _short_line(error["value"], 60)
         line = json.dumps({"format": JSON_FORMAT, "error": error}, ensure_ascii=True)
     else:
         line = f"tablegen: error: {text}"
