@@ -84,7 +84,11 @@ def run(ns) -> int:
 
 
 def lookup(k, texts, digits: int, max_j: int | None = None, latex: bool = False) -> dict:
-    """The record of one value: kind, arguments, symbol, exact, square, decimal, zero rule (, latex)."""
+    """The record of one value: kind, arguments, symbol, exact, square, decimal, zero rule (, latex).
+
+    Keys starting with '_' are for the caller only (``_t``: the doubled
+    arguments) and are left out of the JSON.
+    """
     from .. import __version__
     from ..errors import OptionError
     from ..spins import half_text
