@@ -61,7 +61,9 @@ def _message(exc: BaseException) -> str:
         if exc.filename is None and exc.errno is not None:  # stdout itself (a full disk, /dev/full)
             _silence_stdout()
             return f"cannot write the output: {exc.strerror}"
-        where = f" {exc.filename!r}" if exc.filename is not None else ""
+        from .errors import _show
+
+        where = f" {_show(str(exc.filename))}" if exc.filename is not None else ""
         return f"cannot use{where}: {exc.strerror or exc}"
     if isinstance(exc, MemoryError):
         return "out of memory (narrow the request)"

@@ -164,6 +164,13 @@ def test_impossible_output_folder_is_one_line(capsys, target):
     assert not os.path.exists(target)
 
 
+def test_empty_out_and_long_paths_are_one_short_line(capsys, tmp_path):
+    status, _, err = _run(capsys, "build", "--cg", "1/2", "--out", "", "--quiet")
+    _one_error(status, err, "argument --out = ''", "must name a folder")
+    status, _, err = _run(capsys, "verify", str(tmp_path / ("x" * 4000)))
+    assert len(_one_error(status, err)) < 200
+
+
 def test_dangling_symlink_out_is_one_line(capsys, tmp_path):
     link = tmp_path / "site"
     link.symlink_to(tmp_path / "nowhere")

@@ -68,6 +68,8 @@ def run(ns) -> int:
     from ..spins import count_from_text
 
     jobs = None if ns.jobs is None else count_from_text(ns.jobs, "--jobs", 1, MAX_JOBS)
+    if not ns.out.strip():
+        raise OptionError("--out", ns.out, "must name a folder")
     try:
         os.getcwd()
     except OSError:
