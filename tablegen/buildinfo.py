@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .latex_escape import tex_escape
+from .latex_escape import bibtex_text
 
 __all__ = ["BuildMeta", "bibtex", "plain_citation"]
 
@@ -42,8 +42,8 @@ def _ranges(meta: BuildMeta) -> str:
 
 def bibtex(meta: BuildMeta) -> str:
     """A BibTeX @misc entry naming the tool version, the recipe and the data digest."""
-    # BibTeX balances braces itself and passes the rest to LaTeX: drop braces, escape the rest
-    title = tex_escape(meta.title.replace("{", "").replace("}", ""))
+    # BibTeX balances braces itself and passes the rest to LaTeX: ASCII, commands, placeholders
+    title = bibtex_text(meta.title)
     return (
         f"@misc{{{meta.citation_key},\n"
         f"  title        = {{{{{title}}}: exact angular-momentum coupling coefficients}},\n"

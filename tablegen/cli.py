@@ -1,384 +1,222 @@
-"""The command line: ``tablegen value|build|verify``.
+"""The command line: ``tablegen value|build|verify``; ``main(argv) -> int`` is the whole interface.
 
-``main(argv) -> int`` is the whole interface; tests call it directly.  This is
-the only place where tablegen's errors become stderr text and exit codes:
-user errors print one line and exit 2, never a traceback.
+This is the only place where errors become text and exit statuses:
 
-The ``value`` path imports only the engine (no sympy, no jinja2) so that a
-one-value lookup starts about as fast as the interpreter itself.
+* 0: done; 1: ``verify`` found a problem;
+* 2: any error (a bad argument or recipe, a refused request, a file that
+  cannot be read or written, a closed or full output), reported as one line
+  ``tablegen: error: MESSAGE`` on stderr, never a traceback; with ``--json``
+  the line is a JSON object ``{"format": 1, "error": {...}}``;
+* 130: interrupted (Ctrl-C, SIGTERM during a build).
+
+The subcommands live in :mod:`tablegen.commands`, one module each; only the
+module of the command being run is imported, so ``tablegen value`` stays light
+(no sympy, jinja2 or mpmath).  Options never take abbreviations, and an
+option's value may start with '-' (``--cg -1..1`` is read as the value).
 """
 
 from __future__ import annotations
 
 import sys
 
-from . import __version__
-from .coefficients import KINDS
-from .errors import TablegenError
-
-__all__ = ["main"]
+__all__ = ["main", "EXIT_OK", "EXIT_FAILED", "EXIT_ERROR", "EXIT_INTERRUPTED"]
 
 EXIT_OK = 0
 EXIT_FAILED = 1
-EXIT_USAGE = 2
-_AS_PROGRAM = False
-
-_VALUE_FLAGS_WITH_ARG = ("--digits", "--max-j")
-_VALUE_FLAGS = ("--latex", "--json", "-h", "--help")
+EXIT_ERROR = 2
+EXIT_INTERRUPTED = 130
 
 
-class _UsageError(Exception):
-    """A command-line usage mistake, reported in one line."""
-
-
-def _build_parser():
-    import argparse
-
-    class _Parser(argparse.ArgumentParser):
-        """argparse, but usage errors become one line (no usage dump) and exit 2."""
-
-        def error(self, message: str):  # type: ignore[override]
-            raise _UsageError(f"{self.prog}: {message}")
-
-    parser = _Parser(
-        prog="tablegen",
-        description="Exact Clebsch-Gordan, 3j, 6j, Racah W and 9j values and reference tables "
-        "(Condon-Shortley phase).",
-    )
-    parser.add_argument("--version", action="version", version=f"tablegen {__version__}")
-    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-
-    value = sub.add_parser(
-        "value",
-        help="print one exact value",
-        description="Print one coefficient exactly and as a decimal. KIND is cg, 3j, 6j, w or 9j "
-        "(or d, D, Y for rotation functions and spherical harmonics: see 'tablegen value d --help'); "
-        "the arguments follow the order of the symbol: cg j1 m1 j2 m2 J M; 3j j1 j2 j3 m1 m2 m3; "
-        "6j j1 j2 j3 j4 j5 j6; w a b c d e f; 9j j11 j12 j13 j21 j22 j23 j31 j32 j33. "
-        "Quantum numbers may be written 3/2, 1.5, -1/2 or 2.",
-    )
-    value.add_argument("kind", choices=KINDS, metavar="KIND")
-    value.add_argument("args", nargs="*", metavar="ARG")
-    value.add_argument("--digits", type=int, default=15, help="significant digits of the decimal (default 15)")
-    value.add_argument("--latex", action="store_true", help="also print the LaTeX (both root styles)")
-    value.add_argument("--json", action="store_true", help="print one JSON object instead of text")
-    value.add_argument("--max-j", type=int, default=None, help="raise the size limit on j")
-    value.add_argument("--from", metavar="FILE", help="answer every line 'KIND ARG...' of FILE ('-': stdin) "
-                       "as CSV, or JSON lines with --json (see 'tablegen value --from - --help')")
-
-    build = sub.add_parser(
-        "build",
-        help="write the reference site",
-        description="Write the offline reference site for a recipe (the built-in default recipe "
-        "when no --recipe and no family option is given). Family options take a RANGE: MAX, "
-        "MIN..MAX (e.g. 1/2..7/2) or 'none' to leave the family out.",
-    )
-    build.add_argument("--recipe", metavar="FILE", help="TOML recipe file")
-    build.add_argument("--out", metavar="DIR", default="site", help="output folder (default: ./site)")
-    for family in ("cg", "3j", "6j", "9j"):
-        build.add_argument(f"--{family}", metavar="RANGE", dest=f"range_{family}", help=f"range of j for {family}")
-    build.add_argument("--digits", type=int, help="significant digits of the decimals")
-    build.add_argument("--latex-style", choices=("root", "rational"), help="LaTeX root style")
-    build.add_argument("--title", help="title of the build")
-    build.add_argument("--notes", help="notes shown on the index page")
-    build.add_argument("--jobs", type=int, help="processes for computing (default: all cores)")
-    build.add_argument("--allow-large", action="store_true", help="build even above the size guard")
-    build.add_argument(
-        "--discard-extra", action="store_true",
-        help="replace an old site even if it holds files its SHA256SUMS does not list (they are deleted)",
-    )
-    build.add_argument("--quiet", action="store_true", help="no progress or summary output")
-    build.set_defaults(run=_run_build)
-
-    verify = sub.add_parser(
-        "verify",
-        help="re-check a built site",
-        description="Check every file against SHA256SUMS, report missing and extra files, and "
-        "recompute every value in the data files. Exit status 0 only when everything holds.",
-    )
-    verify.add_argument("folder", metavar="DIR")
-    verify.set_defaults(run=_run_verify)
-    from .commands import SUMMARIES  # listed here for --help; tablegen/commands/ runs them
-
-    for name, summary in SUMMARIES:
-        sub.add_parser(name, help=summary, add_help=False)
-
-    check = sub.add_parser(
-        "check",
-        help="compare another program's floating-point values with the exact ones",
-        description="Read a CSV with columns kind, value and either arguments (space-separated) or "
-        "arg1..arg9, and report per kind how many values agree to a relative tolerance, the largest "
-        "error in ulps, and every row with a wrong sign, a wrong selection-rule zero or a larger error. "
-        "Exit status 0 all agree, 1 some disagree, 2 bad input.",
-    )
-    check.add_argument("file", metavar="FILE", help="the CSV file ('-': stdin)")
-    check.add_argument("--rtol", metavar="X", help="relative tolerance (default 1e-12)")
-    check.set_defaults(run=_run_check)
-    return parser
-
-
-def _reorder_value_argv(argv: list[str]) -> list[str]:
-    """Put options first and quantum numbers after '--', so '-1/2' is not an option."""
-    if not argv or argv[0] != "value":
-        return argv
-    options: list[str] = []
-    positionals: list[str] = []
-    tokens = iter(argv[1:])
-    for token in tokens:
-        name = token.split("=", 1)[0]
-        if name in _VALUE_FLAGS_WITH_ARG:
-            options.append(token)
-            if "=" not in token:
-                options.append(next(tokens, ""))
-        elif token in _VALUE_FLAGS or (token.startswith("--") and token != "--"):
-            options.append(token)
-        elif token != "--" and len(token) > 1 and token[0] == "-" and not (token[1].isdigit() or token[1] == "."):
-            options.append(token)  # '-x': an option (unknown ones are reported as such)
-        elif token != "--":
-            positionals.append(token)
-    return ["value", *options, "--", *positionals]
-
-
-def _quick_value_call(argv: list[str]):
-    """The everyday ``value`` call, read without argparse (whose import costs start-up time).
-
-    Returns None for anything unusual (help, an unknown option, a malformed
-    number); argparse then reads the line and reports any mistake.
-    """
-    if not argv or argv[0] != "value":
-        return None
-    from types import SimpleNamespace
-
-    ns = SimpleNamespace(command="value", kind=None, args=[], digits=15, latex=False, json=False, max_j=None)
-    tokens = iter(argv[1:])
-    for token in tokens:
-        name, eq, text = token.partition("=")
-        if token in ("--latex", "--json"):
-            setattr(ns, token[2:], True)
-        elif name in _VALUE_FLAGS_WITH_ARG:
-            text = text if eq else next(tokens, "")
-            if not text.isdigit():
-                return None
-            setattr(ns, name[2:].replace("-", "_"), int(text))
-        elif token == "--":
-            continue
-        elif token.startswith("-") and not (len(token) > 1 and (token[1].isdigit() or token[1] == ".")):
-            return None
-        elif ns.kind is None:
-            ns.kind = token
-        else:
-            ns.args.append(token)
-    return ns if ns.kind in KINDS else None
+class UsageError(Exception):
+    """A command-line mistake that argparse found (unknown option, missing value)."""
 
 
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; return the exit status."""
-    global _AS_PROGRAM
-    _AS_PROGRAM = argv is None  # run as the program (not called by a test): it exits after this
+    _as_program = argv is None  # run as the program (not called by a test): it exits after this
     argv = list(sys.argv[1:] if argv is None else argv)
-    try:
-        command = _extra_command(argv)  # rotation functions, recouple, lsjj: tablegen/commands/
-        if command is not None:
-            return command()
-        if argv[:1] == ["value"] and any(a == "--from" or a.startswith("--from=") for a in argv):
-            from .batch import main_from  # batch answers: own options, own error lines
+    as_json = "--json" in argv[: argv.index("--")] if "--" in argv else "--json" in argv
+    from . import commands
 
-            return main_from(argv[1:])
-        quick = _quick_value_call(argv)
-        if quick is not None:
-            return _run_value(quick)
-        parser = _build_parser()
-        ns = parser.parse_args(_reorder_value_argv(argv))
-        if ns.command is None:
-            parser.print_help()
-            return EXIT_USAGE
-        if ns.command == "value":
-            return _run_value(ns)
+    commands.AS_PROGRAM = _as_program  # a build restores signal handlers differently in a test
+    try:
+        routed = commands.route(argv)  # value d|D|Y, recouple, lsjj, value --from: their own parsers
+        if routed is not None:
+            return routed()
+        ns = _parse(argv)
+        if ns is None:
+            return EXIT_ERROR
         return ns.run(ns)
-    except _UsageError as exc:
-        print(str(exc), file=sys.stderr)
-        return EXIT_USAGE
-    except TablegenError as exc:
-        print(f"tablegen: error: {exc}", file=sys.stderr)
-        return EXIT_USAGE
     except KeyboardInterrupt:
-        print("tablegen: interrupted", file=sys.stderr)
-        return 130
+        return _fail("interrupted", None, as_json, EXIT_INTERRUPTED)
     except SystemExit as exc:  # --help and --version end through argparse's exit
         return exc.code if isinstance(exc.code, int) else EXIT_OK
+    except BaseException as exc:  # noqa: BLE001 - every error ends as one line
+        return _fail(_message(exc), exc, as_json, EXIT_ERROR)
 
 
-def _extra_command(argv: list[str]):
-    from .commands import route
+def _message(exc: BaseException) -> str:
+    """The one-line text of an error: ours as they are, the system's with the file concerned."""
+    from .errors import TablegenError
 
-    return route(argv)
+    if isinstance(exc, (TablegenError, UsageError)):
+        return str(exc)
+    if isinstance(exc, BrokenPipeError):
+        _silence_stdout()
+        return "output closed before everything was written (broken pipe)"
+    if isinstance(exc, OSError):
+        if exc.filename is None and exc.errno is not None:  # stdout itself (a full disk, /dev/full)
+            _silence_stdout()
+            return f"cannot write the output: {exc.strerror}"
+        from .errors import _show
 
-
-def _run_value(ns) -> int:
-    from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments, why_zero_doubled
-    from .values.decimals import MAX_DIGITS
-    from .notation import symbol_text
-
-    names = ARGUMENT_NAMES[ns.kind]
-    if len(ns.args) != len(names):
-        raise _UsageError(
-            f"tablegen value {ns.kind}: needs {len(names)} arguments ({' '.join(names)}), got {len(ns.args)}"
-        )
-    if not 1 <= ns.digits <= MAX_DIGITS:
-        raise _UsageError(f"tablegen value: argument --digits = {ns.digits}: must be from 1 to {MAX_DIGITS}")
-    if ns.max_j is not None and ns.max_j < 0:
-        raise _UsageError(f"tablegen value: argument --max-j = {ns.max_j}: must be >= 0")
-    t = parse_arguments(ns.kind, ns.args, ns.max_j)
-    value = DOUBLED[ns.kind](*t)
-    zero_rule = why_zero_doubled(ns.kind, t) if not value else None
-    symbol = symbol_text(ns.kind, t)
-    exact = str(value)
-    decimal = value.decimal(ns.digits)
-    if ns.json:
-        import json  # only here: the plain lookup stays as light as possible
-
-        record = {
-            "kind": ns.kind,
-            "arguments": dict(zip(names, (_half(x) for x in t))),
-            "symbol": symbol,
-            "exact": exact,
-            **_sign_p_q(value),
-            "decimal": decimal,
-            "digits": ns.digits,
-            "zero_rule": zero_rule,
-            "convention": "Condon-Shortley",
-            "version": __version__,
-        }
-        if ns.latex:
-            record["latex"] = {"root": value.latex("root"), "rational": value.latex("rational")}
-        print(json.dumps(record, ensure_ascii=False))
-        return EXIT_OK
-    print(symbol)
-    print(f"  exact    {exact}")
-    print(f"  decimal  {decimal}")
-    if zero_rule:
-        print(f"  zero by  {zero_rule}")
-    if ns.latex:
-        print(f"  latex    {value.latex('root')}")
-        print(f"  latex    {value.latex('rational')}  (rationalised)")
-    return EXIT_OK
+        where = f" {_show(str(exc.filename))}" if exc.filename is not None else ""
+        return f"cannot use{where}: {exc.strerror or exc}"
+    if isinstance(exc, MemoryError):
+        return "out of memory (narrow the request)"
+    if isinstance(exc, RecursionError):
+        return "input nested too deeply"
+    return f"internal error {type(exc).__name__}: {exc} (please report this)"
 
 
-def _range_option(family: str, text: str) -> dict | bool:
-    """'4' -> {max_j: '4'}; '1/2..7/2' -> {min_j, max_j}; 'none' -> False (leave out)."""
-    text = text.strip()
-    if text.lower() == "none":
-        return False
-    lo, sep, hi = text.partition("..")
-    if sep:
-        return {"min_j": lo.strip(), "max_j": hi.strip()}
-    return {"max_j": text}
+def _fail(message: str, exc: BaseException | None, as_json: bool, status: int) -> int:
+    text = _short_line(message)
+    if as_json:
+        import json
 
+        from .commands import JSON_FORMAT
 
-def _build_recipe(ns):
-    from .errors import RecipeError
-    from .recipe import DEFAULT_RECIPE, Recipe, load_recipe, recipe_from_mapping
-
-    overrides: dict = {}
-    for family in ("cg", "3j", "6j", "9j"):
-        text = getattr(ns, f"range_{family}")
-        if text is not None:
-            overrides[family] = _range_option(family, text)
-    for key in ("digits", "latex_style", "title", "notes"):
-        value = getattr(ns, key)
-        if value is not None:
-            overrides[key] = value
-    if ns.recipe:
-        base = load_recipe(ns.recipe)
-    elif any(f in overrides for f in ("cg", "3j", "6j", "9j")):
-        base = Recipe(title=DEFAULT_RECIPE.title)  # only the families asked for
+        error = {"message": text}
+        for field in ("argument", "key", "value", "rule", "path"):
+            if exc is not None and hasattr(exc, field):
+                value = getattr(exc, field)
+                error[field] = value if isinstance(value, (int, str)) or value is None else str(value)
+        if "value" in error and isinstance(error["value"], str):
+            error["value"] = _short_line(error["value"], 60)
+        line = json.dumps({"format": JSON_FORMAT, "error": error}, ensure_ascii=True)
     else:
-        base = DEFAULT_RECIPE
+        line = f"tablegen: error: {text}"
     try:
-        recipe = recipe_from_mapping(overrides, base=base)
-    except RecipeError as exc:  # only the options are checked here: name the option
-        option = exc.key.split(".")[0].replace("_", "-")
-        given = getattr(ns, f"range_{option}", None) if option in ("cg", "3j", "6j", "9j") else exc.value
-        raise _UsageError(f"tablegen build: argument --{option} = {given!r}: {exc.rule}") from None
-    if not recipe.families:
-        raise _UsageError("tablegen build: the recipe tabulates no family (give --cg, --3j, --6j or --9j)")
-    return recipe
+        print(line, file=sys.stderr, flush=True)
+    except (OSError, ValueError):  # stderr closed too: nothing more can be said
+        pass
+    return status
 
 
-def _run_build(ns) -> int:
-    import signal
+def _short_line(text: str, limit: int = 300) -> str:
+    text = "".join(c if c.isprintable() else repr(c)[1:-1] for c in str(text))
+    return text if len(text) <= limit else text[: limit - 3] + "..."
 
-    from .build import build
 
-    if ns.jobs is not None and ns.jobs < 1:
-        raise _UsageError(f"tablegen build: argument --jobs = {ns.jobs}: must be >= 1")
-    recipe = _build_recipe(ns)
-    from .interrupts import after_stop, stop_once
+def _silence_stdout() -> None:
+    """After a failed write, point stdout at /dev/null so the exit-time flush stays quiet."""
+    import os
 
-    # a terminated build must clean up: the first SIGINT/SIGTERM becomes an exception, later ones wait
-    previous = {s: signal.signal(s, stop_once) for s in (signal.SIGINT, signal.SIGTERM)}
+    if sys.stdout is not sys.__stdout__ or sys.stdout is None:
+        return  # captured (tests): nothing is flushed at exit
     try:
-        return _build_with_progress(ns, recipe, build)
-    except TablegenError:
-        raise
-    except OSError as exc:  # the file system, not the input: one line, nothing half-written
-        where = f" {exc.filename!r}" if getattr(exc, "filename", None) else ""
-        raise _UsageError(f"tablegen: error: cannot write{where}: {exc.strerror or exc}") from None
-    finally:
-        for s, handler in previous.items():
-            signal.signal(s, handler)
-        after_stop(process_ends=_AS_PROGRAM)
+        null = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(null, sys.stdout.fileno())
+        os.close(null)
+    except (OSError, ValueError):
+        pass
 
 
-def _build_with_progress(ns, recipe, build) -> int:
-    show = sys.stderr.isatty() and not ns.quiet
+# -- parsing -------------------------------------------------------------------
+def _parse(argv: list[str]):
+    """The namespace of the command line, with ``run`` set to the command's function."""
+    from . import __version__
+    from .commands import COMMANDS, command
 
-    def progress(stage: str, done: int, total: int) -> None:
-        if total:
-            text = f"{stage} {done:,}/{total:,} values"
-        else:
-            text = f"{stage} {done:,} files" if done else f"{stage}..."
-        print(f"\rtablegen: {text}\033[K", end="", file=sys.stderr, flush=True)
+    wanted = command(argv[0]) if argv else None
+    parser, chosen = _parser(COMMANDS, wanted, __version__)
+    if wanted is not None:
+        argv = [argv[0], *_normalise(chosen, argv[1:])]
+    ns, extras = parser.parse_known_args(argv)
+    if extras:
+        raise UsageError(f"argument {extras[0]!r}: unknown option or extra argument (see tablegen {argv[0]} --help)")
+    if getattr(ns, "run", None) is None:
+        parser.print_help(sys.stderr)
+        return None
+    return ns
 
-    result = build(
-        recipe, ns.out, jobs=ns.jobs, allow_large=ns.allow_large, discard_extra=ns.discard_extra,
-        progress=progress if show else None,
+
+def _parser(commands, wanted, version: str):
+    import argparse
+
+    class Parser(argparse.ArgumentParser):
+        """argparse, but a mistake becomes one UsageError line (no usage dump)."""
+
+        def error(self, message: str):  # type: ignore[override]
+            raise UsageError(message)
+
+    class Formatter(argparse.HelpFormatter):
+        """argparse's help layout, measuring the terminal without importing shutil (start-up time)."""
+
+        def __init__(self, prog: str, **kwargs) -> None:
+            if kwargs.get("width") is None:
+                import os
+
+                try:
+                    columns = int(os.environ.get("COLUMNS", "0")) or os.get_terminal_size(1).columns
+                except (OSError, ValueError):
+                    columns = 80
+                kwargs["width"] = max(columns, 40) - 2
+            super().__init__(prog, **kwargs)
+
+    parser = Parser(
+        prog="tablegen", allow_abbrev=False, formatter_class=Formatter,
+        description="Exact Clebsch-Gordan, 3j, 6j, Racah W and 9j values and reference tables "
+        "(Condon-Shortley phase).",
     )
-    if show:
-        print("\r\033[K", end="", file=sys.stderr)
-    if not ns.quiet:
-        print(
-            f"tablegen: wrote {result.out_dir}: {result.pages} pages, {result.files} files, "
-            f"{result.values:,} values, {result.bytes / 1e6:.1f} MB in {result.seconds:.1f} s; "
-            f"data digest {result.data_digest}"
-        )
-    return EXIT_OK
+    parser.add_argument("--version", action="version", version=f"tablegen {version}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=Parser)
+    chosen = None
+    for c in commands:
+        if c is wanted:
+            module = c.load()
+            describe = getattr(module, "description", None)
+            chosen = sub.add_parser(
+                c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter,
+                description=describe() if describe else module.DESCRIPTION,
+            )
+            module.add_arguments(chosen)
+            chosen.set_defaults(run=module.run)
+        else:  # listed for help and for the choice of command, never parsed
+            sub.add_parser(c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter)
+    from .commands import SUMMARIES
+
+    for name, summary in SUMMARIES:  # commands with parsers of their own (commands.route), listed for help
+        sub.add_parser(name, help=summary, add_help=False)
+    return parser, chosen
 
 
-def _run_verify(ns) -> int:
-    from .verify import verify_site
+def _normalise(parser, args: list[str]) -> list[str]:
+    """Options first (values glued on: '--cg=-1..1'), then '--', then every positional.
 
-    report = verify_site(ns.folder)
-    print(report.summary())
-    for problem in report.problems:
-        print(f"  {problem}")
-    return EXIT_OK if report.ok else EXIT_FAILED
-
-
-def _run_check(ns) -> int:
-    from .check import main_check  # its own report, bad-input lines and exit status
-
-    return main_check(ns.file, ns.rtol)
-
-
-def _sign_p_q(value) -> dict:
-    """value = sign * sqrt(p/q): p and q as decimal text (they may exceed 2**53)."""
-    from .intmath import int_text
-
-    return {"sign": value.sign, "p": int_text(value.p), "q": int_text(value.q)}
-
-
-def _half(t: int) -> str:
-    from .spins import half_text
-
-    return half_text(t)
+    A token that starts with one '-' and is not an option of the command is a
+    value ('-1/2', '-inf', '-x'), so the command reports it as a bad value of
+    the argument it fills, not as an unknown option.
+    """
+    takes_value, flags = set(), set()
+    for action in parser._actions:  # the documented way to list a parser's options does not exist
+        for name in action.option_strings:
+            (takes_value if action.nargs is None and action.const is None else flags).add(name)
+    options: list[str] = []
+    positionals: list[str] = []
+    tokens = iter(args)
+    for token in tokens:
+        if token == "--":
+            positionals.extend(tokens)
+            break
+        name = token.split("=", 1)[0]
+        if token in takes_value:
+            value = next(tokens, None)
+            options.append(token if value is None else f"{token}={value}")
+        elif name in takes_value or token in flags:
+            options.append(token)
+        elif token.startswith("--") and len(token) > 2:
+            options.append(token)  # unknown: argparse names it
+        else:
+            positionals.append(token)
+    return [*options, "--", *positionals] if positionals else options

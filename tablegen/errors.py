@@ -11,6 +11,7 @@ from __future__ import annotations
 __all__ = [
     "TablegenError",
     "QuantumNumberError",
+    "OptionError",
     "RecipeError",
     "OutputError",
     "TooLargeError",
@@ -24,6 +25,16 @@ class TablegenError(Exception):
 
 class QuantumNumberError(TablegenError, ValueError):
     """A j or m that cannot be a quantum number (not a selection-rule zero)."""
+
+    def __init__(self, argument: str, value: object, rule: str) -> None:
+        self.argument = argument
+        self.value = value
+        self.rule = rule
+        super().__init__(f"argument {argument} = {_show(value)}: {rule}")
+
+
+class OptionError(TablegenError, ValueError):
+    """A command-line option with a value it cannot take (--digits, --max-j, --jobs ...)."""
 
     def __init__(self, argument: str, value: object, rule: str) -> None:
         self.argument = argument
@@ -84,8 +95,17 @@ class TreeError(TablegenError, ValueError):
         super().__init__(f"{which} {_show(text)}{where}: {rule}")
 
 
+#: Longest rendering of an offending value in a message (longer ones end in "...").
+SHOW_MAX = 60
+
+
 def _show(value: object) -> str:
-    """A short, single-line rendering of an offending value."""
+    """A short, single-line rendering of an offending value.
+
+    Strings appear quoted with their control characters escaped (repr), other
+    values as text with control characters escaped too; anything longer than
+    SHOW_MAX characters is cut and ends in "...".
+    """
     text = repr(value) if isinstance(value, str) else str(value)
-    text = text.replace("\n", "\\n")
-    return text if len(text) <= 60 else text[:57] + "..."
+    text = "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
+    return text if len(text) <= SHOW_MAX else text[: SHOW_MAX - 3] + "..."

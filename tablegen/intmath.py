@@ -155,7 +155,7 @@ def _tree_product(values: list[int]) -> int:
     return values[0]
 
 
-_TRIAL_BOUND = 10_000  # covers every prime of a factorial ratio for j <= 2000
+_TRIAL_BOUND = 20_011  # covers every prime of a factorial ratio within the kinds' one-value limits (j <= 5000: arguments up to 4j + 1)
 _MR_BASES = (2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41)
 
 

@@ -8,7 +8,7 @@ Recipe file (TOML)::
 
     title = "Coupling tables for a shell-model exercise"
     notes = "Only the ranges needed for p and d shells."
-    digits = 15                 # significant digits of the decimals (1..100)
+    digits = 15                 # significant digits of the decimals (1..10000, limits.MAX_DIGITS)
     latex_style = "root"        # "root": \\sqrt{\\frac{5}{14}}; "rational": \\frac{\\sqrt{70}}{14}
 
     [cg]                        # <j1 m1; j2 m2 | J M> for min_j <= j1, j2 <= max_j
@@ -21,7 +21,11 @@ Recipe file (TOML)::
     [9j]
     max_j = 2
 
-The ranges are inclusive; half-integers are written "7/2" or 3.5.
+The ranges are inclusive; half-integers are written "7/2" or 3.5 (ASCII digits,
+at most 40 characters, no j above limits.ENGINE_MAX_J).  The file is UTF-8,
+with or without a byte-order mark.  Titles and notes hold no control
+characters (notes may hold line breaks and tabs).  The size guard lives in
+sizeguard.py; ``check_size`` and ``estimate_size`` are re-exported here.
 """
 
 from __future__ import annotations
@@ -29,8 +33,10 @@ from __future__ import annotations
 import sys
 from dataclasses import dataclass, field
 
-from .errors import QuantumNumberError, RecipeError, TooLargeError
+from .errors import QuantumNumberError, RecipeError
+from .families import FAMILIES as _FAMILY_RECORDS
 from .families import FAMILY_KEYS
+from .limits import ENGINE_MAX_J, MAX_DIGITS, RECIPE_MAX_BYTES, VALUE_LIMIT
 from .spins import half_text, parse_j
 
 __all__ = [
@@ -40,26 +46,17 @@ __all__ = [
     "FAMILIES",
     "load_recipe",
     "recipe_from_mapping",
+    "recipe_from_options",
     "estimate_size",
     "check_size",
 ]
 
-#: Families in the order they appear everywhere (pages, data, digest): the Family records' keys.
+#: Families in the order they appear everywhere (pages, data, digest): the family records' keys.
 FAMILIES = FAMILY_KEYS
-FAMILY_NAMES = {
-    "cg": "Clebsch–Gordan coefficients",
-    "3j": "Wigner 3j symbols",
-    "6j": "Wigner 6j symbols and Racah W",
-    "9j": "Wigner 9j symbols",
-}
+FAMILY_NAMES = {f.key: f.title for f in _FAMILY_RECORDS}
 LATEX_STYLES = ("root", "rational")
-MAX_DIGITS = 100
 MAX_TITLE = 200
 MAX_NOTES = 4000
-#: Refuse builds estimated above this many values unless the caller insists.
-VALUE_LIMIT = 1_500_000
-
-_NO_J_LIMIT = 10**9
 _TOP_KEYS = ("title", "notes", "digits", "latex_style") + FAMILIES
 _FAMILY_KEYS = ("max_j", "min_j")
 
@@ -147,21 +144,34 @@ DEFAULT_RECIPE = Recipe(
 
 
 def _load_toml(path: str) -> dict:
+    """The parsed TOML of a recipe file; every failure is one RecipeError naming --recipe."""
     if sys.version_info >= (3, 11):
         import tomllib
     else:  # pragma: no cover - Python 3.10
         import tomli as tomllib
     try:
         with open(path, "rb") as fh:
-            return tomllib.load(fh)
+            data = fh.read(RECIPE_MAX_BYTES + 1)
     except FileNotFoundError:
         raise RecipeError("--recipe", path, "file not found") from None
     except IsADirectoryError:
         raise RecipeError("--recipe", path, "is a folder, not a TOML file") from None
-    except tomllib.TOMLDecodeError as exc:
-        raise RecipeError("--recipe", path, f"not valid TOML ({exc})") from None
+    except OSError as exc:  # permission, a dangling link, an I/O error
+        raise RecipeError("--recipe", path, f"cannot be read ({exc.strerror or exc})") from None
+    if len(data) > RECIPE_MAX_BYTES:
+        raise RecipeError("--recipe", path, f"larger than {RECIPE_MAX_BYTES:,} bytes; not a recipe")
+    if data.startswith(b"\xef\xbb\xbf"):  # a UTF-8 byte-order mark, as some editors write
+        data = data[3:]
+    try:
+        text = data.decode("utf-8")
     except UnicodeDecodeError:
         raise RecipeError("--recipe", path, "not UTF-8 text") from None
+    try:
+        return tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise RecipeError("--recipe", path, f"not valid TOML ({exc})") from None
+    except (ValueError, RecursionError, MemoryError):  # an integer of thousands of digits, deep nesting
+        raise RecipeError("--recipe", path, "not valid TOML (a number or nesting beyond any recipe)") from None
 
 
 def load_recipe(path: str) -> Recipe:
@@ -172,43 +182,59 @@ def load_recipe(path: str) -> Recipe:
 def _j_value(key: str, value: object) -> int:
     if isinstance(value, bool) or not isinstance(value, (int, float, str)):
         raise RecipeError(key, value, "must be a number such as 4, 3.5 or \"7/2\"")
+    if isinstance(value, int) and abs(value) > 10 * ENGINE_MAX_J:  # never double a 4000-digit int
+        raise RecipeError(key, value, f"j above the engine's limit {ENGINE_MAX_J:,}")
     try:
-        # no size limit here: check_size judges the whole recipe, with --allow-large to insist
-        return parse_j(value, key, max_j=_NO_J_LIMIT)
+        # the engine's ceiling here; the kinds' one-value limits, counts and time are the
+        # size guard's (sizeguard.check_size), which --allow-large overrides
+        return parse_j(value, key, max_j=ENGINE_MAX_J)
     except QuantumNumberError as exc:
-        raise RecipeError(key, value, exc.rule) from None
+        rule = exc.rule
+        if "size limit" in rule:
+            rule = f"j above the engine's limit {ENGINE_MAX_J:,} (no option lifts it)"
+        raise RecipeError(key, value, rule) from None
 
 
-def recipe_from_mapping(data: dict, base: Recipe | None = None) -> Recipe:
+def _text_value(key: str, value: object, allowed: str, limit: int, required: bool) -> str:
+    """A title or notes: a string, UTF-8-encodable, without control characters but ``allowed``."""
+    if not isinstance(value, str) or (required and not value.strip()):
+        raise RecipeError(key, value, "must be a non-empty string" if required else "must be a string")
+    if len(value) > limit:
+        raise RecipeError(key, value, f"must be at most {limit} characters")
+    try:
+        value.encode("utf-8")
+    except UnicodeEncodeError:  # a non-UTF-8 byte from the command line (surrogate escape)
+        raise RecipeError(key, value, "not valid UTF-8 text") from None
+    for ch in value:
+        if ch not in allowed and (ch < " " or "\x7f" <= ch <= "\x9f"):
+            raise RecipeError(key, value, f"control character {ch!r} not allowed")
+    return value
+
+
+def recipe_from_mapping(data: dict, base: Recipe | None = None, names: dict | None = None) -> Recipe:
     """Validate a mapping (parsed TOML or command-line options) into a Recipe.
 
     Keys absent from ``data`` come from ``base`` (``None``: the plain defaults
-    with no families).  Every error names the key and the rule it breaks.
+    with no families).  Every error names the key and the rule it breaks;
+    ``names`` renames keys in errors (``{"title": "--title"}``).
     """
+    names = names or {}
     if not isinstance(data, dict):
         raise RecipeError("(recipe)", data, "must be a table of keys")
     for key in data:
         if key not in _TOP_KEYS:
             raise RecipeError(key, data[key], f"unknown key (known: {', '.join(_TOP_KEYS)})")
     base = base or Recipe()
-    title = data.get("title", base.title)
-    if not isinstance(title, str) or not title.strip():
-        raise RecipeError("title", title, "must be a non-empty string")
-    if len(title) > MAX_TITLE:
-        raise RecipeError("title", title, f"must be at most {MAX_TITLE} characters")
-    notes = data.get("notes", base.notes)
-    if not isinstance(notes, str):
-        raise RecipeError("notes", notes, "must be a string")
-    if len(notes) > MAX_NOTES:
-        raise RecipeError("notes", notes, f"must be at most {MAX_NOTES} characters")
+    title = _text_value(names.get("title", "title"), data.get("title", base.title), "\t", MAX_TITLE, True)
+    notes = _text_value(names.get("notes", "notes"), data.get("notes", base.notes), "\n\r\t", MAX_NOTES, False)
     digits = data.get("digits", base.digits)
     if isinstance(digits, bool) or not isinstance(digits, int):
-        raise RecipeError("digits", digits, "must be a whole number")
+        raise RecipeError(names.get("digits", "digits"), digits, "must be a whole number")
     if not 1 <= digits <= MAX_DIGITS:
-        raise RecipeError("digits", digits, f"must be from 1 to {MAX_DIGITS}")
+        raise RecipeError(names.get("digits", "digits"), digits, f"must be from 1 to {MAX_DIGITS:,}")
     style = data.get("latex_style", base.latex_style)
     if style not in LATEX_STYLES:
-        raise RecipeError("latex_style", style, f"must be one of {', '.join(LATEX_STYLES)}")
+        raise RecipeError(names.get("latex_style", "latex_style"), style, f"must be one of {', '.join(LATEX_STYLES)}")
 
     ranges = {f.family: f for f in base.families}
     for name in FAMILIES:
@@ -236,55 +262,72 @@ def recipe_from_mapping(data: dict, base: Recipe | None = None) -> Recipe:
     return Recipe(title=title, notes=notes, digits=digits, latex_style=style, families=families)
 
 
-# -- size estimate -------------------------------------------------------------
-def _js(f: FamilyRange) -> range:
-    return range(f.min_tj, f.max_tj + 1)
+# -- command-line options ------------------------------------------------------
+def _range_option(option: str, text: str) -> FamilyRange | None:
+    """'4' -> j <= 4; '1/2..7/2' -> 1/2 <= j <= 7/2; 'none' -> None (leave the family out)."""
+    name = option[2:]
+    if text.strip().lower() == "none":
+        return None
+    lo, sep, hi = text.partition("..")
+    try:
+        top = _j_value(option, hi if sep else text)
+        bottom = _j_value(option, lo) if sep else 0
+    except RecipeError as exc:  # name the option with the whole range as typed
+        raise RecipeError(option, text, exc.rule) from None
+    if bottom > top:
+        raise RecipeError(option, text, f"MIN must not exceed MAX = {half_text(top)} (reversed range)")
+    return FamilyRange(name, bottom, top)
 
 
-def _cg_count(f: FamilyRange) -> int:
-    """Exact number of <j1 m1; j2 m2 | J M> allowed by the selection rules.
+def recipe_from_options(options: dict[str, str], recipe_file: str | None = None) -> Recipe:
+    """The recipe of ``build`` options ('--cg' -> '1/2..7/2', '--title' -> text, ...) over a base.
 
-    For a pair (j1, j2) each product state |m1 m2> appears once for every J
-    with |M| <= J in the triangle range, so the count is a short sum.
+    The base is the recipe file if given, else only the families asked for if
+    any family option is given, else the default recipe.  Every error is a
+    RecipeError naming the option as typed.
     """
-    total = 0
-    for a in _js(f):
-        for b in _js(f):
-            lo = abs(a - b)
-            for tm1 in range(-a, a + 1, 2):
-                for tm2 in range(-b, b + 1, 2):
-                    start = max(lo, abs(tm1 + tm2))
-                    total += (a + b - start) // 2 + 1
-    return total
+    from .errors import OptionError
+    from .spins import count_from_text
 
-
-def estimate_size(recipe: Recipe) -> dict[str, int]:
-    """Estimated number of tabulated values per family (classes for 6j/9j).
-
-    Exact for cg/3j; for 6j and 9j a power law fitted to exact class counts,
-    which is all a guard against runaway builds needs.
-    """
-    out: dict[str, int] = {}
-    for f in recipe.families:
-        n = f.max_tj - f.min_tj + 1  # number of distinct j values
-        if f.family in ("cg", "3j"):
-            out[f.family] = _cg_count(f) if f.max_tj <= 20 else int(0.132 * n**5)  # 7,809 at j <= 4
-        elif f.family == "6j":
-            out[f.family] = max(1, int(630 * (n / 9) ** 6))  # 630 classes at j <= 4
+    families = {f"--{key}" for key in FAMILIES}
+    if recipe_file is not None:
+        base = load_recipe(recipe_file)
+    elif families & options.keys():
+        base = Recipe(title=DEFAULT_RECIPE.title)  # only the families asked for
+    else:
+        base = DEFAULT_RECIPE
+    data: dict = {}
+    ranges = {f.family: f for f in base.families}
+    for option, text in options.items():
+        if option in families:
+            chosen = _range_option(option, text)
+            ranges.pop(option[2:], None) if chosen is None else ranges.update({chosen.family: chosen})
+        elif option == "--digits":
+            try:
+                data["digits"] = count_from_text(text, option, 1, MAX_DIGITS)
+            except OptionError as exc:
+                raise RecipeError(option, text, exc.rule) from None
         else:
-            out[f.family] = max(1, int(350 * (n / 5) ** 9))  # ~350 classes at j <= 2
-    return out
+            data[option[2:].replace("-", "_")] = text
+    names = {key: f"--{key.replace('_', '-')}" for key in data}
+    recipe = recipe_from_mapping(data, base, names)
+    chosen_families = tuple(ranges[key] for key in FAMILIES if key in ranges)
+    if not chosen_families:
+        option = "/".join(f"--{key}" for key in FAMILIES)
+        raise RecipeError(option, "none", "the recipe tabulates no family (give a range to one of them)")
+    return Recipe(recipe.title, recipe.notes, recipe.digits, recipe.latex_style, chosen_families)
+
+
+# -- size guard (sizeguard.py) ---------------------------------------------------
+def estimate_size(recipe: Recipe) -> dict[str, int]:
+    """Values per family: exact where possible, else a lower bound (see sizeguard)."""
+    from .sizeguard import estimate_size as estimate
+
+    return estimate(recipe)
 
 
 def check_size(recipe: Recipe, allow_large: bool = False) -> dict[str, int]:
-    """Refuse a recipe too large for this machine before anything is computed."""
-    est = estimate_size(recipe)
-    total = sum(est.values())
-    if total > VALUE_LIMIT and not allow_large:
-        parts = ", ".join(f"{k}: ~{v:,}" for k, v in est.items())
-        raise TooLargeError(
-            "recipe too large",
-            f"estimated {total:,} values; {parts}",
-            f"the limit is {VALUE_LIMIT:,} values; narrow the ranges, or pass --allow-large to insist",
-        )
-    return est
+    """Refuse a recipe too large for this machine before anything is computed (see sizeguard)."""
+    from .sizeguard import check_size as check
+
+    return check(recipe, allow_large)

@@ -21,7 +21,6 @@ Tables list one row per class and caches may key on the canonical form.
 
 from __future__ import annotations
 
-from fractions import Fraction
 from itertools import permutations
 
 from .triads import sixj_sums
@@ -188,6 +187,8 @@ def _allowed_doubled(key: str, values: tuple, max_j: int | None) -> tuple[int, .
 
 
 def _halves(t: tuple[int, ...]) -> tuple[Fraction, ...]:
+    from fractions import Fraction  # only here: the one-value command never needs it
+
     return tuple(Fraction(x, 2) for x in t)
 
 

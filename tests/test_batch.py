@@ -253,7 +253,7 @@ def test_interrupt_is_one_line(tmp_path):
         proc.send_signal(signal.SIGINT)
         err = proc.stderr.read().decode()
         assert proc.wait(timeout=60) == 130
-    assert err.splitlines() == ["tablegen: interrupted"]
+    assert err.splitlines() == ["tablegen: error: interrupted"]
 
 
 def test_batch_path_stays_light(tmp_path):

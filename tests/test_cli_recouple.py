@@ -184,7 +184,7 @@ def test_latex_and_working():
     assert any("\\begin{Bmatrix}" in x for x in latex)
     value = sympy.sympify(exact)
     # the value's own LaTeX (the Surd's LaTeX is checked against sympy in test_surd.py)
-    assert latex[0] == Surd.from_signed_square(Fraction(str(sympy.sign(value) * value**2))).latex("root")
+    assert latex[0] == Surd.from_square(Fraction(str(value**2)), int(sympy.sign(value))).latex("root")
 
 
 @pytest.mark.parametrize("argv, rule", [
@@ -226,7 +226,7 @@ def test_four_leaf_matrix_against_9j_json():
     status, out, _ = _run(argv)
     assert status == 0
     record = json.loads(out)
-    assert record["format_version"] == 1 and record["orthogonal"] is True
+    assert record["format"] == 1 and record["orthogonal"] is True
     assert record["values"] == {"a": "1/2", "b": "1/2", "c": "1", "d": "1", "j": "1"}
     assert len(record["rows"]) == len(record["entries"]) == 4 and len(record["columns"]) == 4
     assert "\\begin{array}" in record["latex"]
@@ -273,7 +273,7 @@ def test_json_value_record():
     status, out, _ = _run(argv)
     assert status == 0 and len(out.strip().splitlines()) == 1
     record = json.loads(out)
-    assert record["format_version"] == 1 and record["command"] == "recouple"
+    assert record["format"] == 1 and record["command"] == "recouple"
     assert record["values"] == {"a": "1", "b": "1", "c": "1", "e": "2", "f": "1", "g": "1"}
     assert _close(sympy.sympify(record["exact"]), brute_force("((a b)e c)f", "(a (b c)g)f", {k: R(v) for k, v in record["values"].items()}))
     assert R(record["square"]) == sympy.sign(sympy.sympify(record["exact"])) * sympy.sympify(record["exact"]) ** 2

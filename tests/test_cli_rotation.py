@@ -240,7 +240,7 @@ def test_json_function_record(capsys):
     status, out, err = _run(capsys, ["value", "Y", "2", "-1", "--json"])
     assert status == 0 and err == "" and len(out.strip().splitlines()) == 1
     record = json.loads(out)
-    assert record["format_version"] == 1
+    assert record["format"] == 1
     assert record["kind"] == "Y" and record["arguments"] == {"l": "2", "m": "-1"}
     assert sympy.simplify(_read(record["function"]) - sympy.Ynm(2, -1, THETA, PHI).expand(func=True)) == 0
     assert record["zero_rule"] is None and "Condon-Shortley" in record["convention"]

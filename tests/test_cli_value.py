@@ -222,12 +222,15 @@ def test_bad_input_one_line_exit_2(capsys, argv, words):
 
 
 def test_max_j_option_lets_a_larger_j_through(capsys):
-    status, _, err = _run(capsys, ["value", "6j", "2001", "2001", "0", "0", "0", "2001"])
-    assert status == 2 and "size limit" in err
-    status, out, err = _run(capsys, ["value", "6j", "2001", "2001", "0", "0", "0", "2001", "--max-j", "2001"])
+    status, _, err = _run(capsys, ["value", "6j", "5001", "5001", "0", "0", "0", "5001"])
+    assert status == 2 and "size limit 5000" in err and "--max-j" in err
+    status, out, err = _run(capsys, ["value", "6j", "5001", "5001", "0", "0", "0", "5001", "--max-j", "5001"])
     assert status == 0, err
+    # above the kind's one-value limit: one warning line about time and memory
+    assert err.startswith("tablegen: warning: j = 5001 is above the 6j limit 5,000") and "memory" in err
+    assert len(err.splitlines()) == 1
     # {a b 0; 0 0 b}-type symbols reduce to (-1)^(a+b+c) / sqrt((2a+1)(2b+1)); here compared with sympy
-    assert sympy.sympify(_field(out, "exact")) == wigner_6j(2001, 2001, 0, 0, 0, 2001)
+    assert sympy.sympify(_field(out, "exact")) == wigner_6j(5001, 5001, 0, 0, 0, 5001)
 
 
 def _status_or_exit(argv) -> int:

@@ -399,7 +399,7 @@ def test_sigterm_to_the_whole_process_group_ends_the_build_quickly(tmp_path: Pat
         else:
             assert proc.returncode in (130, -signal.SIGTERM), (proc.returncode, err)
             assert _snapshot(out) == before
-            assert err == "" or err.strip() == "tablegen: interrupted", err
+            assert err == "" or err.strip() == "tablegen: error: interrupted", err
 
 
 @pytest.mark.slow
@@ -424,7 +424,7 @@ def test_a_second_ctrl_c_during_clean_up_leaves_nothing_and_prints_no_traceback(
             # 130, or killed by the second SIGINT once Python had already restored its default
             # action while exiting (after the clean-up and the message): both end the build truly
             assert proc.returncode in (130, -signal.SIGINT), (proc.returncode, err)
-            assert err.strip() == "tablegen: interrupted", err
+            assert err.strip() == "tablegen: error: interrupted", err
             assert _snapshot(out) == before
 
 
@@ -481,7 +481,7 @@ def test_an_interrupt_during_clean_up_is_not_a_second_outcome(tmp_path: Path, ca
     monkeypatch.setattr(output_module, "_remove_tree", remove_with_second_signal)
     status, err = _cli(capsys, "build", "--out", str(out), "--cg", "1/2")
     monkeypatch.undo()
-    assert status == 130 and err == ["tablegen: interrupted"], err
+    assert status == 130 and err == ["tablegen: error: interrupted"], err
     assert _snapshot(out) == before and _hidden(tmp_path) == []
 
 

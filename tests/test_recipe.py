@@ -36,8 +36,11 @@ def _write(tmp_path: Path, text: str, name: str = "recipe.toml") -> Path:
 
 def _parse_build(argv: list[str]) -> Recipe:
     """The recipe the command line would build, without building it."""
-    ns = cli._build_parser().parse_args(["build", *argv])
-    return cli._build_recipe(ns)
+    from tablegen.commands import build as build_command
+    from tablegen.recipe import recipe_from_options
+
+    ns = cli._parse(["build", *argv])
+    return recipe_from_options(build_command.options_of(ns), ns.recipe)
 
 
 def _triangle(a: int, b: int, c: int) -> bool:
@@ -187,7 +190,7 @@ def test_command_line_none_for_every_family_is_refused(capsys) -> None:
         Recipe(),
         Recipe(
             title='Quotes " and back\\slashes, tabs\tand UTF-8: ⟨j m|',
-            notes="two\nlines, a bell \x07 and \"quotes\"",
+            notes="two\nlines, a tab \t and \"quotes\"",
             digits=3,
             latex_style="rational",
             families=(FamilyRange("3j", 1, 7), FamilyRange("9j", 2, 3)),
@@ -224,8 +227,8 @@ BAD = [
     ({"6j": {"min_j": 1}}, "6j.max_j", "required"),
     ({"digits": "x"}, "digits", "whole number"),
     ({"digits": 2.5}, "digits", "whole number"),
-    ({"digits": 0}, "digits", "from 1 to 100"),
-    ({"digits": 101}, "digits", "from 1 to 100"),
+    ({"digits": 0}, "digits", "from 1 to 10,000"),
+    ({"digits": 10001}, "digits", "from 1 to 10,000"),
     ({"title": 3}, "title", "string"),
     ({"title": "   "}, "title", "non-empty"),
     ({"notes": ["a"]}, "notes", "string"),
@@ -376,9 +379,19 @@ def test_sixj_symbol_enumeration_matches_triangle_rule() -> None:
     assert set(got) == expected
 
 
-def test_toml_text_escapes_delete_character(tmp_path: Path) -> None:
+def test_toml_text_escapes_control_characters(tmp_path: Path) -> None:
     # TOML 1.0, "String": control characters other than tab (U+0000-U+0008, U+000A-U+001F,
-    # U+007F) must be escaped in basic strings.  recipe_from_mapping accepts such a title
-    # (e.g. from --title), so recipe.toml of the build must still load back.
-    recipe = recipe_from_mapping({"title": "rubout \x7f here", "cg": {"max_j": 1}})
+    # U+007F) must be escaped in basic strings; notes may hold line breaks and tabs.
+    recipe = recipe_from_mapping({"title": "tab\there", "notes": "a\r\nb\tc", "cg": {"max_j": 1}})
     assert load_recipe(str(_write(tmp_path, recipe.toml_text()))) == recipe
+
+
+@pytest.mark.parametrize("key", ["title", "notes"])
+@pytest.mark.parametrize("char", ["\x00", "\x07", "\x1b", "\x7f", "\x85"])
+def test_control_characters_in_title_and_notes_are_refused(key: str, char: str) -> None:
+    # NUL, BEL, ESC, DEL and a C1 control would reach HTML and LaTeX raw: refused with the key named
+    with pytest.raises(RecipeError) as info:
+        recipe_from_mapping({key: f"before{char}after", "cg": {"max_j": 1}})
+    message = str(info.value)
+    assert f"recipe key {key} = " in message and "control character" in message
+    assert all(c.isprintable() for c in message)  # the offending character is shown escaped

@@ -1,20 +1,80 @@
-"""Commands beyond the coupling symbols: rotation functions, recoupling, LS<->jj.
+"""The subcommands of ``tablegen``: one small module each, listed explicitly in :data:`COMMANDS`.
 
-    value d|D|Y ...   functions.py   (function-valued kinds, one record each)
-    recouple ...      recouple.py    (coefficients, working and matrices between trees)
-    lsjj L1 L2        lsjj.py        (two-particle LS<->jj matrices per J)
+A command module provides:
 
-``cli.main`` asks :func:`route` first; it returns the command to run, or None
-for everything else (the coupling symbols, build, verify).  Each command has
-its own small parser and raises TablegenError subclasses; only ``cli.main``
-turns errors into text.  Nothing heavy is imported before a command is chosen.
+* ``DESCRIPTION``: the text of ``tablegen NAME --help``;
+* ``add_arguments(parser)``: its options (an ``argparse`` parser; options
+  that take a value take exactly one, so ``--opt -1..1`` works);
+* ``run(ns) -> int``: does the work and returns the exit status.  It raises
+  :class:`~tablegen.errors.TablegenError` for anything the user can fix and
+  writes its output with :func:`emit` (one write, so a closed pipe or a full
+  disk is reported once, as one line).
+
+To add a command: write ``tablegen/commands/NAME.py`` with those three and add
+one :class:`Command` line below.  Only the module of the command being run is
+imported, so a heavy command costs nothing to ``tablegen value``.
+
+A few commands read their own argv with a parser of their own and are found
+by :func:`route` before the main parser runs: ``value d|D|Y`` (functions.py,
+function-valued kinds), ``recouple`` (recouple.py), ``lsjj`` (lsjj.py) and
+``value --from FILE`` (batch answers, tablegen/batch.py).
 """
 
 from __future__ import annotations
 
+import sys
 from typing import Callable
 
-__all__ = ["route", "SUMMARIES"]
+__all__ = ["Command", "COMMANDS", "command", "emit", "warn", "JSON_FORMAT", "route", "SUMMARIES"]
+
+#: True when cli.main runs as the program (it exits afterwards); set by cli.main.
+AS_PROGRAM = False
+
+#: Version of every JSON record the command line writes (results and errors).
+JSON_FORMAT = 1
+
+
+class Command:
+    """One subcommand: its name, the module that implements it, and the one-line help."""
+
+    __slots__ = ("name", "module", "help")
+
+    def __init__(self, name: str, module: str, help: str) -> None:
+        self.name = name
+        self.module = module
+        self.help = help
+
+    def load(self):
+        """The implementing module (imported now, not before)."""
+        from importlib import import_module
+
+        return import_module(self.module)
+
+
+COMMANDS: tuple[Command, ...] = (
+    Command("value", "tablegen.commands.value", "print one exact value"),
+    Command("build", "tablegen.commands.build", "write the reference site"),
+    Command("verify", "tablegen.commands.verify", "re-check a built site"),
+    Command("check", "tablegen.commands.check", "compare another program's floating-point values with the exact ones"),
+)
+_BY_NAME = {c.name: c for c in COMMANDS}
+
+
+def command(name: str) -> Command | None:
+    """The Command called ``name``, or None."""
+    return _BY_NAME.get(name)
+
+
+def emit(text: str) -> None:
+    """Write ``text`` (lines ending in a newline) to stdout and flush, so errors surface here."""
+    sys.stdout.write(text)
+    sys.stdout.flush()
+
+
+def warn(text: str) -> None:
+    """One warning line on stderr (the command still succeeds)."""
+    print(f"tablegen: warning: {text}", file=sys.stderr)
+
 
 #: (command, one-line help) for the main parser's list of commands.
 SUMMARIES = (
@@ -28,9 +88,13 @@ _VALUE_OPTIONS = ("--digits", "--max-j", "--alpha", "--beta", "--gamma", "--thet
 
 
 def route(argv: list[str]) -> "Callable[[], int] | None":
-    """The command for argv if it is one of this package's, else None."""
+    """The command for argv if it reads its own argv, else None (the main parser's commands)."""
     if not argv:
         return None
+    if argv[0] == "value" and any(a == "--from" or a.startswith("--from=") for a in argv):
+        from ..batch import main_from  # batch answers: own options, own error lines
+
+        return lambda: main_from(argv[1:])
     if argv[0] == "recouple":
         from . import recouple
 

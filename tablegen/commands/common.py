@@ -15,8 +15,7 @@ from ..errors import TablegenError
 __all__ = ["CommandLineError", "OneLineParser", "options_first", "print_json", "field", "FORMAT_VERSION",
            "check_digits_option"]
 
-#: Version of the JSON records these commands print; raised when a key changes meaning or goes.
-FORMAT_VERSION = 1
+from . import JSON_FORMAT as FORMAT_VERSION  # one version for every JSON record of the command line
 
 
 class CommandLineError(TablegenError, ValueError):
@@ -72,5 +71,5 @@ def print_json(record: dict) -> None:
 
     from .. import __version__
 
-    print(json.dumps({"format_version": FORMAT_VERSION, **record, "version": __version__}, ensure_ascii=False),
+    print(json.dumps({"format": FORMAT_VERSION, **record, "version": __version__}, ensure_ascii=False),
           file=sys.stdout)

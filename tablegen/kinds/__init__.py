@@ -13,31 +13,61 @@ Nothing registers itself on import: the list below is the registry.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-from typing import Callable, Sequence
+# Records are small slotted classes, not dataclasses or named tuples: the
+# one-value command imports this module, and dataclasses (with inspect, ast,
+# typing) would double its start-up time.  Annotations stay strings (PEP 563).
 
-from ..values import Surd
+
+class _Record:
+    """An immutable record: ``_fields`` by position or keyword, ``_defaults`` for the last ones."""
+
+    __slots__ = ()
+    _fields: tuple = ()
+    _defaults: dict = {}
+
+    def __init__(self, *args, **kwargs) -> None:
+        if len(args) > len(self._fields) or not set(kwargs) <= set(self._fields):
+            raise TypeError(f"{type(self).__name__} takes the fields {', '.join(self._fields)}")
+        values = {**self._defaults, **dict(zip(self._fields, args)), **kwargs}
+        missing = [f for f in self._fields if f not in values]
+        if missing:
+            raise TypeError(f"{type(self).__name__} is missing {', '.join(missing)}")
+        for name in self._fields:
+            object.__setattr__(self, name, values[name])
+
+    def __setattr__(self, name: str, value: object) -> None:
+        raise AttributeError(f"{type(self).__name__} is immutable")
+
+    def _values(self) -> tuple:
+        return tuple(getattr(self, f) for f in self._fields)
+
+    def __eq__(self, other: object) -> bool:
+        return type(other) is type(self) and self._values() == other._values()  # type: ignore[attr-defined]
+
+    def __hash__(self) -> int:
+        return hash(self._values())
+
+    def __repr__(self) -> str:
+        return f"{type(self).__name__}({', '.join(f'{f}={getattr(self, f)!r}' for f in self._fields)})"
 
 __all__ = ["Kind", "Notation", "Selection", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
 
 
-@dataclass(frozen=True, slots=True)
-class ZeroRule:
+class ZeroRule(_Record):
     """Why a value is exactly zero: a short rule id and a sentence.
 
     ids: "triangle", "triad-sum", "m-sum", "m-range", "parity", "symmetry",
     "cancellation".  ``str()`` gives "id: text", the form the CLI prints.
     """
 
-    id: str
-    text: str
+    __slots__ = ("id", "text")
+    _fields = __slots__
 
     def __str__(self) -> str:
         return f"{self.id}: {self.text}"
 
 
-@dataclass(frozen=True, slots=True)
-class Notation:
+class Notation(_Record):
     """How a symbol is written, as data: renderers turn it into text, MathML or LaTeX.
 
     style:
@@ -47,14 +77,12 @@ class Notation:
     groups: argument positions per row / group, in writing order.
     """
 
-    style: str
-    groups: tuple[tuple[int, ...], ...]
-    brackets: str = ""  # "()" or "{}" for arrays
-    name: str = ""  # function name for "function"
+    __slots__ = ("style", "groups", "brackets", "name")
+    _fields = __slots__
+    _defaults = {"brackets": "", "name": ""}
 
 
-@dataclass(frozen=True, slots=True)
-class Selection:
+class Selection(_Record):
     """The selection rules of a kind as data (argument positions), for planners and the jump box.
 
     triads: positions of each triple that must obey the triad rule.
@@ -63,13 +91,12 @@ class Selection:
     The kind's ``zero_rule`` applies the same data and adds the rules data cannot say.
     """
 
-    triads: tuple[tuple[int, int, int], ...] = ()
-    projections: tuple[tuple[int, int], ...] = ()
-    m_sum: tuple[int, ...] = ()
+    __slots__ = ("triads", "projections", "m_sum")
+    _fields = __slots__
+    _defaults = {"triads": (), "projections": (), "m_sum": ()}
 
 
-@dataclass(frozen=True, slots=True)
-class Kind:
+class Kind(_Record):
     """One kind of value.
 
     key: the name the CLI, data files and values.txt use ("cg", "3j", "6j", "w", "9j").
@@ -84,22 +111,32 @@ class Kind:
         value(member) = sign * value(t), canonical (largest) form first; None if the
         kind has no tabulated symmetry class.
     selection: the selection rules as argument positions (see Selection).
+    max_j: the one-value limit: the default largest j of a lookup, chosen so that
+        every value within it returns in about a second (``--max-j`` raises it).
+    cost_power, seconds_at_max_j: the time of one value grows about like
+        seconds_at_max_j * (j / max_j) ** cost_power (measured on the worst
+        arguments, all j equal); the size guard and the --max-j warning use it.
     """
 
-    key: str
-    title: str
-    arguments: tuple[str, ...]
-    j_positions: tuple[int, ...]
-    parse: Callable[[Sequence[object], "int | None"], tuple[int, ...]]
-    doubled: Callable[..., Surd]
-    zero_rule: Callable[[tuple[int, ...]], "ZeroRule | None"]
-    notation: Notation
-    members: "Callable[..., list[tuple[tuple[int, ...], int]]] | None" = None
-    selection: Selection = Selection()
+    __slots__ = (
+        "key", "title", "arguments", "j_positions", "parse", "doubled", "zero_rule", "notation",
+        "members", "selection", "max_j", "cost_power", "seconds_at_max_j",
+    )
+    _fields = __slots__
+    _defaults = {"members": None, "selection": Selection(), "max_j": 2000, "cost_power": 2, "seconds_at_max_j": 1.0}
 
-    def text(self, t: Sequence[int]) -> str:
+    @property
+    def triads(self) -> tuple:
+        """Argument positions of every triad of j's (a symbol is admissible when all couple)."""
+        return self.selection.triads
+
+    def seconds(self, tj: int) -> float:
+        """Rough time of one value whose largest doubled j is ``tj`` (0 below j = 1)."""
+        return self.seconds_at_max_j * (tj / (2 * self.max_j)) ** self.cost_power
+
+    def text(self, t: "Sequence[int]") -> str:
         """The symbol in plain text: '<1 1; 1 -1 | 0 0>', '{1 1 1; 1 1 1}', 'W(a b c d; e f)'."""
-        from ..notation import half_text
+        from ..spins import half_text
 
         n = self.notation
         parts = [" ".join(half_text(t[i]) for i in g) for g in n.groups]
@@ -109,7 +146,7 @@ class Kind:
             return f"{n.name}({'; '.join(parts)})"
         return f"{n.brackets[0]}{'; '.join(parts)}{n.brackets[1]}"
 
-    def value(self, *values: object, max_j: "int | None" = None) -> Surd:
+    def value(self, *values: object, max_j: "int | None" = None) -> "Surd":
         """The value from quantum numbers in any accepted form."""
         return self.doubled(*self.parse(values, max_j))
 

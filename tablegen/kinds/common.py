@@ -2,8 +2,6 @@
 
 from __future__ import annotations
 
-from typing import Sequence
-
 from ..spins import parse_j
 from ..triads import triad_failure
 from . import ZeroRule

@@ -172,4 +172,7 @@ NINEJ = Kind(
     notation=Notation("array", ((0, 1, 2), (3, 4, 5), (6, 7, 8)), "{}"),
     members=ninej_members,
     selection=Selection(triads=_TRIADS),
+    max_j=200,  # all nine j = 200 takes ~0.5 s (measured); time grows about like j**3
+    cost_power=3,
+    seconds_at_max_j=0.5,
 )

@@ -170,6 +170,9 @@ def _parse_w(values, max_j=None) -> tuple[int, ...]:
     return parse_js("w", _W_NAMES, values, max_j)
 
 
+# one value with every j <= 5000 takes at most ~0.8 s (all six j = 5000, measured), about like j**2
+_LIMITS = {"max_j": 5000, "cost_power": 2, "seconds_at_max_j": 0.8}
+
 SIXJ = Kind(
     key="6j",
     title="Wigner 6j symbol",
@@ -181,6 +184,7 @@ SIXJ = Kind(
     notation=Notation("array", ((0, 1, 2), (3, 4, 5)), "{}"),
     members=sixj_members,
     selection=Selection(triads=_SIXJ_TRIADS),
+    **_LIMITS,
 )
 RACAH_W = Kind(
     key="w",
@@ -192,4 +196,5 @@ RACAH_W = Kind(
     zero_rule=_w_rule,
     notation=Notation("function", ((0, 1, 2, 3), (4, 5)), name="W"),
     selection=Selection(triads=_W_TRIADS),
+    **_LIMITS,
 )

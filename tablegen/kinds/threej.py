@@ -210,6 +210,10 @@ def _parse_threej(values, max_j=None) -> tuple[int, ...]:
 
 _CANCELLATION = ZeroRule("cancellation", "every selection rule holds, but the Racah sum is exactly 0")
 
+# one value with every j <= 5000 takes at most ~0.5 s (3j(5000 5000 5000; 1 -1 0), measured),
+# growing about like j**2
+_LIMITS = {"max_j": 5000, "cost_power": 2, "seconds_at_max_j": 0.5}
+
 CG = Kind(
     key="cg",
     title="Clebsch–Gordan coefficient",
@@ -220,6 +224,7 @@ CG = Kind(
     zero_rule=_cg_rule,
     notation=Notation("braket", ((0, 1), (2, 3), (4, 5))),
     selection=_CG_RULES,
+    **_LIMITS,
 )
 THREEJ = Kind(
     key="3j",
@@ -232,4 +237,5 @@ THREEJ = Kind(
     notation=Notation("array", ((0, 1, 2), (3, 4, 5)), "()"),
     members=threej_members,
     selection=_THREEJ_RULES,
+    **_LIMITS,
 )

@@ -12,7 +12,6 @@ either path.
 from __future__ import annotations
 
 from math import isqrt
-from typing import Callable
 
 from ..intmath import int_text
 
@@ -21,7 +20,8 @@ __all__ = ["MAX_DIGITS", "check_digits", "surd_decimal", "surd_float", "bounded_
 MAX_DIGITS = 100_000
 
 #: bounds(base, s) -> (low, high) integers with low <= |value| * base**s <= high
-Bounds = Callable[[int, int], "tuple[int, int]"]
+#: (a type alias written as text: importing typing would double the one-value start-up)
+Bounds = "Callable[[int, int], tuple[int, int]]"
 
 
 def check_digits(digits: object) -> None:
