@@ -103,3 +103,29 @@ SIXJ_MATRICES = Family(
 )
 
 
+
+
+# -- the slow marker: one list, so a fast local loop is `pytest -m "not slow"` ----------------------
+# Whole modules that start a browser, run pdflatex/bibtex, rebuild the default site or fuzz the
+# command line, and single tests that compare many values with sympy.  CI runs all of them.
+import pytest  # noqa: E402
+
+SLOW_MODULES = ("test_browser.py", "test_render_latex.py", "test_site.py", "test_cli_fuzz.py", "test_faults.py")
+SLOW_TESTS = (
+    "test_four_leaves_every_pair_every_order",
+    "test_three_leaves_every_pair_every_order",
+    "test_ninej_fast_path_equals_three_sixj",
+    "test_sympy_at_random_angles_30_digits",
+    "test_orthonormal_on_the_sphere_30_digits",
+    "test_every_sixj_up_to_3_matches_sympy",
+    "test_random_ninej_match_sympy",
+    "test_threej_orthogonality_for_all_j_up_to_5_2",
+    "test_builds_ignore_hash_seed",
+)
+
+
+def pytest_collection_modifyitems(config, items):
+    for item in items:
+        name = item.name.split("[", 1)[0]
+        if item.path.name in SLOW_MODULES or name in SLOW_TESTS:
+            item.add_marker(pytest.mark.slow)
