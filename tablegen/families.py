@@ -95,7 +95,7 @@ FAMILIES: tuple[Family, ...] = (
         nav_label="CG",
         layout=GridLayout(
             third="J", row="M", row_tag="ket", m_sum_sign=1, twin="3j", row_states=True,
-            page_title="⟨{j1} m1; {j2} m2 | J M⟩ — coupling {j1} ⊗ {j2}", page_label="{j1} ⊗ {j2}",
+            page_title="⟨{j1} m1; {j2} m2 | J M⟩: every J from j1 = {j1} and j2 = {j2}", page_label="j1 = {j1}, j2 = {j2}",
         ),
         convention="Condon–Shortley phase. ⟨j1 m1; j2 m2 | J M⟩ = (−1)^(j1−j2+M) √(2J+1) (j1 j2 J; m1 m2 −M). "
         "Coupling order j1 ⊗ j2; the reversed order differs by (−1)^(j1+j2−J).",

@@ -96,7 +96,7 @@ def tab(browser, site):
     w.close()
 
 
-PAGES = ["index.html", "cg/1x0.5.html", "3j/0.5x1.html", "6j/jmax-1.html", "9j/jmax-1.html",
+PAGES = ["index.html", "cg/j1-1-j2-0.5.html", "3j/j1-0.5-j2-1.html", "6j/jmax-1.html", "9j/jmax-1.html",
          "conventions.html", "methods.html", "cite.html"]
 
 
@@ -115,7 +115,7 @@ def test_page_loads_without_errors_from_disk(tab, path):
 
 def test_value_mathml_is_laid_out(tab, site):
     # a MathML-capable browser gives the formula a real box (W3C MathML Core)
-    tab.open("cg/1x0.5.html")
+    tab.open("cg/j1-1-j2-0.5.html")
     box = tab.page.locator('td[id="J=3/2,M=1/2,m1=1"] > math').bounding_box()
     assert box and box["width"] > 10 and box["height"] > 10
     root_box = tab.page.locator('td[id="J=3/2,M=1/2,m1=1"] msqrt').bounding_box()
@@ -165,7 +165,7 @@ CASES = [
     ("index.html", "cg", ["1", "-1", "0.5", "1/2", "1/2", "-0.5"],
      _CG.page_path("cg", 2, 1), _CG.anchor(1, -1, -2)),
     # (1/2 1 3/2; -1/2 1 -1/2) from a page in a subfolder, with a typographic minus
-    ("3j/0x0.html", "3j", ["1/2", "1", "1.5", "\u22121/2", "1", "-1/2"],
+    ("3j/j1-0-j2-0.html", "3j", ["1/2", "1", "1.5", "\u22121/2", "1", "-1/2"],
      _3J.page_path("3j", 1, 2), _3J.anchor(3, -1, -1)),
 ]
 
@@ -182,7 +182,7 @@ def test_jump_box_finds_a_6j_from_a_non_canonical_form(tab):
     key = (1, 1, 2, 1, 1, 0)  # {1/2 1/2 1; 1/2 1/2 0}
     path, anchor = _sixj_expected(key)
     assert anchor != _class_place("6j", key)[1], "the test needs a non-canonical form"
-    tab.open("cg/0x0.html")
+    tab.open("cg/j1-0-j2-0.html")
     _type(tab.page, "6j", ["1/2", "1/2", "1", "1/2", "1/2", "0"])
     _landed(tab.page, path, anchor)
     note = tab.page.locator("#jump-note").text_content()
@@ -251,9 +251,10 @@ def _h(t: int) -> str:
 
 
 def _ket_latex(section, r: int, book) -> str:
-    """|J,M> = c1 |j1,m1>|j2,m2> + ..., written independently of the site script."""
+    """|(j1,j2) J,M> = c1 |j1,m1>|j2,m2> + ..., written independently of the site script."""
     tJ, tM = dict(section.params)["J"], section.rows[r]
-    text = f"|{_h(tJ)},{_h(tM)}\\rangle = "
+    tj1, tj2 = section.entries[0].key[0], section.entries[0].key[2]
+    text = f"|({_h(tj1)},{_h(tj2)})\\,{_h(tJ)},{_h(tM)}\\rangle = "
     first = True
     for entry in section.grid[r]:
         if entry is None or not book[("cg", entry.key)].value:
@@ -272,7 +273,7 @@ def test_copy_buttons_copy_the_latex(browser, site):
     root, plan, book = site
     w = Watched(browser, root, clipboard=True)
     try:
-        table = plan.table("cg-1x0.5")
+        table = plan.table("cg-j1-1-j2-0.5")
         entry = table.sections[0].grid[1][0]  # J = 3/2, M = 1/2, m1 = 1
         w.open(table.page)
         cell = w.page.locator(f'td[id="{entry.anchor}"]')
@@ -280,7 +281,7 @@ def test_copy_buttons_copy_the_latex(browser, site):
         cell.locator("button.cp").click()
         assert w.page.evaluate("navigator.clipboard.readText()") == book[("cg", entry.key)].tex
 
-        for pair in (plan.table("cg-1x1"), table):  # every state |J M> of two pages
+        for pair in (plan.table("cg-j1-1-j2-1"), table):  # every state |J M> of two pages
             w.open(pair.page)
             for section in pair.sections:
                 for r, anchor in enumerate(section.row_anchors):

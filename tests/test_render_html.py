@@ -212,7 +212,7 @@ def test_cg_and_3j_cells_link_to_their_twins(built, parsed):
 
 
 def test_cg_rows_are_written_as_ket_expansions(built, parsed):
-    # the expansion |J M> = sum <j1 m1; j2 m2|J M> |j1 m1>|j2 m2> (Edmonds 1957, eq. 3.5.1 — from memory)
+    # the expansion |(j1 j2) J M> = sum <j1 m1; j2 m2|J M> |j1 m1>|j2 m2> (Edmonds 1957, eq. 3.5.1 — from memory)
     _, plan, book, _, files = built
     for table in plan.tables_of("cg"):
         page = parsed[table.page]
@@ -226,7 +226,8 @@ def test_cg_rows_are_written_as_ket_expansions(built, parsed):
                 item = text[text.index(f'<li id="{anchor}">') :]
                 item = item[: item.index("</li>")]
                 assert item.count("<math>") == page.math_in[anchor]
-                assert f"<mtext>|{_m(tJ)}, {_m(tM)}⟩</mtext><mo>=</mo>" in item
+                # the coupled state shows its coupling; product states are |j m>|j m> (issue 8)
+                assert f"<mtext>|({j1}, {j2}) {_m(tJ)}, {_m(tM)}⟩</mtext><mo>=</mo>" in item
                 terms = [e for e in section.grid[r] if e is not None and book[("cg", e.key)].value]
                 assert page.math_in[anchor] == len(terms) + 1
                 for e in terms:
@@ -264,16 +265,18 @@ def test_symbol_pages_list_every_form_and_the_racah_w(built):
                 assert ("= −1 × the 6j" in row) == (w_sign < 0)
 
 
-def test_every_page_carries_the_jump_data_from_the_records(built):
+def test_every_page_loads_the_jump_data_from_the_records(built):
     recipe, plan, _, _, files = built
-    blocks = set()
     for page in plan.pages:
         text = files[page.path].decode("utf-8")
-        m = re.search(r'<script type="application/json" id="tablegen-data">(.*?)</script>', text)
-        assert m, f"{page.path} lacks the jump data"
-        blocks.add(m.group(1))
-    assert len(blocks) == 1  # the same facts on every page
-    facts = json.loads(blocks.pop())
+        data = relative_url(page.path, "assets/data.js")
+        script = relative_url(page.path, "assets/site.js")
+        assert f'<script src="{data}" defer></script>' in text, f"{page.path} does not load the jump data"
+        assert text.index(data) < text.index(script)  # deferred scripts run in document order
+        assert "tablegen-data" not in text  # no copy of the data in the page itself
+    m = re.fullmatch(r"window\.tablegenData = (.*);\n", files["assets/data.js"].decode("utf-8"), re.S)
+    assert m
+    facts = json.loads(m.group(1))
     assert {k: v["range"] for k, v in facts["families"].items()} == {f.family: [f.min_tj, f.max_tj] for f in recipe.families}
     assert facts["families"]["6j"]["pages"] == list(dict(plan.family_pages)["6j"])
     assert [k["key"] for k in facts["kinds"]] == ["cg", "3j", "6j", "w", "9j"]

@@ -77,10 +77,10 @@ def test_fresh_build_verifies(capsys, built: Path) -> None:
 # {1 1 1; 1 1 1} = 1/6 (Edmonds 1957, Table 5, closed forms with one j = 1; from memory)
 CHANGES = [
     # (file, old text, new text, words every matching problem must carry)
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),", "1,1,1,-1,0,0,sqrt(1/5),", ["<1 1; 1 -1 | 0 0>", "exact"]),
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626",
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),", "1,1,1,-1,0,0,sqrt(1/5),", ["<1 1; 1 -1 | 0 0>", "exact"]),
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626",
      "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,", "1,1,1,-1,0,0,sqrt(1/3),1/2,", ["<1 1; 1 -1 | 0 0>", "square"]),
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,", "1,1,1,-1,0,0,sqrt(1/3),1/2,", ["<1 1; 1 -1 | 0 0>", "square"]),
     ("data/6j-jmax-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6"',
      '"args":["1","1","1","1","1","1"],"exact":"1/7"', ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\n6j 1 1 1 1 1 1 1/6\n", "\n6j 1 1 1 1 1 1 1/9\n", ["{1 1 1; 1 1 1}", "exact"]),
@@ -108,10 +108,10 @@ def test_changed_value_is_reported(capsys, site: Path, rel, old, new, words, res
 
 # -- missing, extra and checksum problems ----------------------------------------------------------
 def test_missing_file_is_reported(capsys, site: Path) -> None:
-    (site / "data" / "cg-1x1.csv").unlink()
+    (site / "data" / "cg-j1-1-j2-1.csv").unlink()
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert "  missing file: data/cg-1x1.csv" in out
+    assert "  missing file: data/cg-j1-1-j2-1.csv" in out
 
 
 def test_missing_values_txt_is_reported(capsys, site: Path) -> None:
@@ -143,12 +143,12 @@ def test_corrupted_sums_line_is_reported(capsys, site: Path) -> None:
 def test_changed_digest_in_sums_is_reported(capsys, site: Path) -> None:
     sums = site / SUMS
     text = sums.read_text(encoding="utf-8")
-    line = next(l for l in text.splitlines() if l.endswith("  data/cg-1x1.csv"))
+    line = next(l for l in text.splitlines() if l.endswith("  data/cg-j1-1-j2-1.csv"))
     flipped = ("0" if line[0] != "0" else "1") + line[1:]
     sums.write_text(text.replace(line, flipped), encoding="utf-8")
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert "  checksum mismatch: data/cg-1x1.csv" in out
+    assert "  checksum mismatch: data/cg-j1-1-j2-1.csv" in out
 
 
 
@@ -157,9 +157,9 @@ def test_changed_digest_in_sums_is_reported(capsys, site: Path) -> None:
     "rel",
     [
         SUMS,
-        "data/cg-1x1.csv",
+        "data/cg-j1-1-j2-1.csv",
         "values.txt",
-        "data/cg-1x1.json",
+        "data/cg-j1-1-j2-1.json",
     ],
 )
 def test_bytes_that_are_not_utf8_are_reported(capsys, site: Path, rel: str) -> None:
@@ -205,12 +205,12 @@ def test_a_deleted_table_row_is_noticed_even_when_resealed(capsys, site: Path) -
     # The digest is the SHA-256 of values.txt, so every value a table holds must be listed there
     # and the other way round (common practice, no source). <1 1; 1 -1 | 0 0> = 1/sqrt(3) is the
     # J = 0 state of two spin-1 particles (Condon & Shortley 1935, from memory).
-    csv_path = site / "data" / "cg-1x1.csv"
+    csv_path = site / "data" / "cg-j1-1-j2-1.csv"
     lines = csv_path.read_text(encoding="utf-8").splitlines(keepends=True)
     row = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
     assert row in lines
     csv_path.write_text("".join(line for line in lines if line != row), encoding="utf-8")
-    _reseal(site, "data/cg-1x1.csv")
+    _reseal(site, "data/cg-j1-1-j2-1.csv")
     status, out, _ = _run(capsys, site)
     assert status == 1
     assert any("values.txt" in line and "cg 1 1 1 -1 0 0" in line for line in out), out

@@ -4,7 +4,7 @@
  * request is made.  What the jump box must know -- the kinds of value with
  * their argument names, selection rules and notation, the families with their
  * layouts, ranges, page-name and anchor patterns -- is written into every page
- * by the generator, from its records, as the JSON block #tablegen-data.  This
+ * by the generator, from its records, as assets/data.js (window.tablegenData).  This
  * script keeps only the parsing of typed numbers and the symmetry algorithms
  * that find the canonical form of a typed symbol.  The pages read fine without it.
  */
@@ -19,10 +19,10 @@
   var DATA = readData();
   html.className += " js";
 
+  // assets/data.js, loaded just before this script, sets window.tablegenData.
   function readData() {
-    var block = doc.getElementById("tablegen-data");
-    if (!block) return null;
-    try { return JSON.parse(block.textContent); } catch (e) { return null; }
+    var data = window.tablegenData;
+    return data && data.kinds ? data : null;
   }
 
   // ---------------------------------------------------------------- copying
@@ -66,7 +66,7 @@
     return b;
   }
 
-  // The LaTeX of a coupled state |J M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
+  // The LaTeX of a coupled state |(j1,j2) J,M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
   // made from the LaTeX of the coefficients in its grid row (each cell's data-t).
   // The row's id is "<tag>:<third>=<value>,<row>=<value>", as the grid layout writes it.
   function ketLatex(li) {
@@ -75,7 +75,7 @@
     var row = link.closest("tr");
     var j = row.closest("table").getAttribute("data-j").split(",");
     var tM = doubled(state[3], state[2]);
-    var out = "|" + state[1] + "," + state[3] + "\\rangle = ";
+    var out = "|(" + j[0] + "," + j[1] + ")\\," + state[1] + "," + state[3] + "\\rangle = ";
     var first = true;
     var cells = row.querySelectorAll("td[data-t]");
     for (var i = 0; i < cells.length; i++) {

@@ -1,4 +1,4 @@
-"""The grid layout: one coupling j1 x j2 per page, a section per third j, a grid per section.
+"""The grid layout: one pair (j1, j2) per page, a section per third j, a grid per section.
 
 Rows are the third projection r (M for CG, m3 for 3j), columns m1, and m2
 follows from the projection sum m1 + m2 = m_sum_sign * r.  A value's key is
@@ -31,7 +31,7 @@ class GridLayout:
     twin: str = ""  # the family holding the same numbers in another convention
     row_states: bool = False  # rows are coupled states |third row>, written out as ket expansions
     page_title: str = "{title} for j1 = {j1}, j2 = {j2}"  # pattern: {j1} {j2} {title}
-    page_label: str = "{j1} ⊗ {j2}"
+    page_label: str = "j1 = {j1}, j2 = {j2}"
     count_noun: str = "values"
 
     name = "grid"
@@ -39,14 +39,15 @@ class GridLayout:
 
     # -- names (shared with the jump box through page_pattern / anchor_pattern) --
     def page_path(self, key: str, tj1: int, tj2: int) -> str:
-        return f"{key}/{file_code(tj1)}x{file_code(tj2)}.html"
+        """'cg/j1-1-j2-0.5.html': both j named, in the file-name form of :func:`file_code`."""
+        return f"{key}/j1-{file_code(tj1)}-j2-{file_code(tj2)}.html"
 
     def anchor(self, tk: int, tr: int, tm1: int) -> str:
         return f"{self.third}={half(tk)},{self.row}={half(tr)},m1={half(tm1)}"
 
     def page_pattern(self, key: str) -> str:
         """The page path with argument names in braces (the jump box fills them in)."""
-        return f"{key}/{{j1}}x{{j2}}.html"
+        return f"{key}/j1-{{j1}}-j2-{{j2}}.html"
 
     def anchor_pattern(self) -> str:
         return f"{self.third}={{{self.third}}},{self.row}={{{self.row}}},m1={{m1}}"
@@ -64,14 +65,14 @@ class GridLayout:
                 related = []
                 if twin and _within(twin[1], tj1, tj2):
                     tfam = twin[0]
-                    related.append(Link(f"{tfam.nav_label} for {half(tj1)} ⊗ {half(tj2)}",
+                    related.append(Link(f"{tfam.nav_label} with the same j1 and j2",
                                         tfam.layout.page_path(tfam.key, tj1, tj2)))
                 if tj1 != tj2:
-                    related.append(Link(f"reversed order {half(tj2)} ⊗ {half(tj1)}", self.page_path(fam.key, tj2, tj1)))
+                    related.append(Link(f"j1 and j2 swapped (j1 = {half(tj2)}, j2 = {half(tj1)})", self.page_path(fam.key, tj2, tj1)))
                 for d1, d2 in ((-1, 0), (1, 0), (0, -1), (0, 1)):
                     a, b = tj1 + d1, tj2 + d2
                     if _within(f, a, b):
-                        related.append(Link(f"{half(a)} ⊗ {half(b)}", self.page_path(fam.key, a, b)))
+                        related.append(Link(f"j1 = {half(a)}, j2 = {half(b)}", self.page_path(fam.key, a, b)))
                 names = {"j1": half(tj1), "j2": half(tj2), "title": fam.title}
                 pages.append(Page(table.page, self.page_title.format(**names), fam.key, (table.id,),
                                   related=tuple(related), label=self.page_label.format(**names)))
@@ -114,7 +115,7 @@ class GridLayout:
                 row_anchors=tuple(f"{self.row_tag}:{third},{self.row}={half(tr)}" for tr in rows),
                 params=((self.third, tk),),
             ))
-        tid = f"{fam.key}-{file_code(tj1)}x{file_code(tj2)}"
+        tid = f"{fam.key}-j1-{file_code(tj1)}-j2-{file_code(tj2)}"
         return Table(
             id=tid,
             family=fam.key,

@@ -108,6 +108,7 @@ def _grid_rows(site: "_Site", page: Page, fam: Family, section: Section) -> list
     layout, args = fam.layout, fam.kind_record.arguments
     at = {name: args.index(name) for name in ("j1", "j2", "m1", "m2")}
     third = section.params[0][1]
+    j1, j2 = (section.entries[0].key[at[n]] for n in ("j1", "j2"))
     rows = []
     for r, tr in enumerate(section.rows):
         cells, terms = [], []
@@ -125,7 +126,7 @@ def _grid_rows(site: "_Site", page: Page, fam: Family, section: Section) -> list
             kets = mathml.ket_product((entry.key[at["j1"]], entry.key[at["m1"]]), (entry.key[at["j2"]], entry.key[at["m2"]]))
             coeff = "" if s.tex_abs == "1" else mathml.value_inner(s.tex_abs)
             terms.append(Term(sign, Markup(coeff + kets)))
-        ket = Markup(mathml.equation(mathml.ket_product((third, tr)), "")) if layout.row_states else None
+        ket = Markup(mathml.equation(mathml.coupled_ket(j1, j2, third, tr), "")) if layout.row_states else None
         rows.append(Row(label=_qn(tr), anchor=section.row_anchors[r], cells=tuple(cells), ket=ket, terms=tuple(terms)))
     return rows
 
@@ -160,12 +161,17 @@ def _grid_page(site: "_Site", page: Page) -> bytes:
 
 
 def _grid_index(site: "_Site", page: Page, fam: Family) -> dict:
-    """The j1 × j2 table of links to the family's pages."""
-    links = {(t.param("j1"), t.param("j2")): relative_url(page.path, t.page) for t in site.plan.tables_of(fam.key)}
+    """A table of links, rows j1 and columns j2; each cell names the values of the third j its page holds."""
+    links = {}
+    for t in site.plan.tables_of(fam.key):
+        thirds = [s.params[0][1] for s in t.sections]
+        span = _qn(thirds[0]) if len(thirds) == 1 else f"{_qn(min(thirds))}–{_qn(max(thirds))}"
+        links[(t.param("j1"), t.param("j2"))] = (relative_url(page.path, t.page), span)
     js = sorted({a for a, _ in links} | {b for _, b in links})
     return {
         "js": [half_text(t) for t in js],
-        "rows": [(half_text(a), [(half_text(b), links.get((a, b))) for b in js]) for a in js],
+        "third": fam.layout.third,
+        "rows": [(half_text(a), [(half_text(b), *links.get((a, b), (None, ""))) for b in js]) for a in js],
     }
 
 
