@@ -185,7 +185,7 @@ def test_jump_box_finds_a_6j_from_a_non_canonical_form(tab):
     tab.open("cg/j1-0-j2-0.html")
     _type(tab.page, "6j", ["1/2", "1/2", "1", "1/2", "1/2", "0"])
     _landed(tab.page, path, anchor)
-    note = tab.page.locator("#jump-note").text_content()
+    note = tab.page.locator("#jump-note .ctx").text_content()
     assert "canonical form" in note
     assert tab.problems == []
 
@@ -197,13 +197,13 @@ def test_jump_box_finds_a_racah_w_and_tells_the_sign(tab):
     tab.open("index.html")
     _type(tab.page, "w", ["1/2", "1/2", "1/2", "1/2", "1", "0"])
     _landed(tab.page, path, anchor)
-    note = tab.page.locator("#jump-note").text_content()
+    note = tab.page.locator("#jump-note .ctx").text_content()
     assert note.startswith("W(1/2 1/2 1/2 1/2; 1 0) = {1/2 1/2 1; 1/2 1/2 0}")  # a+b+c+d = 2: sign +1
     tab.page.goto((tab.root / "index.html").as_uri())
     _type(tab.page, "w", ["1", "1/2", "1/2", "1", "1/2", "1/2"])  # a+b+c+d = 3: sign -1
     path, anchor = _sixj_expected((2, 1, 1, 2, 1, 1))
     _landed(tab.page, path, anchor)
-    assert "= \u22121 \u00d7 {1 1/2 1/2; 1 1/2 1/2}" in tab.page.locator("#jump-note").text_content()
+    assert "= \u22121 \u00d7 {1 1/2 1/2; 1 1/2 1/2}" in tab.page.locator("#jump-note .ctx").text_content()
     assert tab.problems == []
 
 
@@ -214,7 +214,7 @@ def test_jump_box_finds_a_9j_from_a_non_canonical_form(tab):
     tab.open("6j/jmax-1.html")
     _type(tab.page, "9j", ["0.5", "1/2", "1", "1/2", "0.5", "0", "1", "0", "1"])
     _landed(tab.page, *_class_place("9j", canon))
-    note = tab.page.locator("#jump-note").text_content()
+    note = tab.page.locator("#jump-note .ctx").text_content()
     assert ("\u22121 \u00d7" in note) == (sign < 0)
     assert tab.problems == []
 
@@ -335,3 +335,78 @@ def test_jump_box_lands_on_a_matrix_cell(browser, matrix_site):
         assert w.problems == []
     finally:
         w.close()
+
+
+# -- the sign trap (issue 8): a typed or linked form shows its own value ------------------------
+def _signed_form(kind_key: str, fam_key: str, book):
+    """A form of a non-zero symbol whose value is −1 × its class's highlighted row, found from the Python side."""
+    from tablegen.kinds import kind
+    from tablegen.layouts import symbols_in_range
+
+    k = kind(kind_key)
+    for t in symbols_in_range(k, 0, 2):
+        members = k.members(*t)  # value(form) = sign * value(t); members[0] is the canonical form
+        for form, sign in members:
+            if sign * members[0][1] < 0 and k.doubled(*form):
+                return form
+    raise AssertionError(f"no form with sign -1 in {kind_key}")  # pragma: no cover
+
+
+def _check_said(tab, kind_key: str, form) -> None:
+    """The note shows value(form) with its own sign: LaTeX, decimal and the copied LaTeX."""
+    from tablegen.kinds import kind
+
+    value = kind(kind_key).doubled(*form)
+    tex = value.latex("root")  # the small build's recipe style
+    said = tab.page.locator("#jump-note .said")
+    said.wait_for(state="visible")
+    assert said.get_attribute("data-value") == tex
+    assert value.decimal(15) in said.text_content()
+    said.locator("button.cp").click()
+    assert tab.page.evaluate("navigator.clipboard.readText()") == tex
+
+
+@pytest.fixture
+def clip_tab(browser, site):
+    w = Watched(browser, site[0], clipboard=True)
+    yield w
+    w.close()
+
+
+def test_a_typed_9j_with_sign_minus_one_shows_its_own_value(clip_tab, site):
+    # odd row/column permutations bring (-1)^(sum of the nine j) (Edmonds 1957, eq. 6.4.6 — from memory)
+    _, plan, book = site
+    form = _signed_form("9j", "9j", book)
+    canon, sign = ninej_canonical(*form)
+    assert sign < 0 and canon != form
+    clip_tab.open("index.html")
+    _type(clip_tab.page, "9j", [_h(x) for x in form])
+    _landed(clip_tab.page, *_class_place("9j", canon))
+    _check_said(clip_tab, "9j", form)
+    assert clip_tab.problems == []
+
+
+def test_a_typed_w_with_sign_minus_one_shows_its_own_value(clip_tab, site):
+    # W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f} (Racah 1942; Edmonds 1957, eq. 6.2.13 — from memory)
+    a, b, c, d, e, f = 2, 1, 1, 2, 1, 1  # a+b+c+d = 3: W = -{1 1/2 1/2; 1 1/2 1/2}
+    from tablegen.kinds import kind
+
+    assert kind("w").doubled(a, b, c, d, e, f) == -kind("6j").doubled(a, b, e, d, c, f) != 0
+    clip_tab.open("index.html")
+    _type(clip_tab.page, "w", [_h(x) for x in (a, b, c, d, e, f)])
+    _landed(clip_tab.page, *_sixj_expected((a, b, e, d, c, f)))
+    _check_said(clip_tab, "w", (a, b, c, d, e, f))
+    assert clip_tab.problems == []
+
+
+def test_a_link_to_one_form_shows_that_form(clip_tab, site):
+    # a link naming a non-canonical 9j form lands on its class and shows the form's own value
+    _, plan, book = site
+    form = _signed_form("9j", "9j", book)
+    canon, _ = ninej_canonical(*form)
+    path, anchor = _class_place("9j", canon)
+    form_anchor = family("9j").layout.anchor(form, _ROWS)
+    clip_tab.page.goto((clip_tab.root / path).as_uri() + "#" + form_anchor)
+    _landed(clip_tab.page, path, anchor)
+    _check_said(clip_tab, "9j", form)
+    assert clip_tab.problems == []

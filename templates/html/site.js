@@ -258,8 +258,9 @@
   var KINDS = {}, KIND_ORDER = [];
   if (DATA) DATA.kinds.forEach(function (k) { KINDS[k.id] = k; KIND_ORDER.push(k.id); });
 
-  function result(kind, text, path, anchor) {
-    return { kind: kind, text: text, path: path || null, anchor: anchor || null };
+  // factor: value(typed symbol) = factor * value(the highlighted row or cell).
+  function result(kind, text, path, anchor, factor) {
+    return { kind: kind, text: text, path: path || null, anchor: anchor || null, factor: factor || 1 };
   }
   function zero(text) { return result("zero", "Zero: " + text + ", so it is not tabulated."); }
   function minusOne(sign) { return sign < 0 ? "\u22121 \u00d7 " : ""; }
@@ -320,12 +321,12 @@
     var same = canon.join() === t.join(), text = "";
     if (what) {
       text = what + " = " + minusOne(sign) + writeSymbol(k, t) +
-        (same ? "" : " = " + minusOne(total) + "the canonical form " + writeSymbol(k, canon)) + ".";
+        (same ? "" : " = " + minusOne(total) + "the canonical form " + writeSymbol(k, canon)) + " (highlighted row).";
     } else if (!same) {
-      text = writeSymbol(k, t) + (total < 0 ? " = \u22121 \u00d7 its canonical form " : " equals its canonical form ") +
-        writeSymbol(k, canon) + ", shown highlighted.";
+      text = "Filed under its canonical form " + writeSymbol(k, canon) + " (highlighted row)" +
+        (total < 0 ? ", which is \u22121 \u00d7 the symbol above." : ", which is equal to it.");
     }
-    return result("ok", text, path, classAnchor(k, canon));
+    return result("ok", text, path, classAnchor(k, canon), total);
   }
 
   function resolve(id, t) {
@@ -344,8 +345,9 @@
       sign = (s / 2) % 2 === 0 ? 1 : -1;
       what = writeSymbol(k, t);
     }
-    if (fam.layout === "classes") return classTarget(fam, main, target, what, sign);
-    return patternTarget(fam, main, target);
+    var res = fam.layout === "classes" ? classTarget(fam, main, target, what, sign) : patternTarget(fam, main, target);
+    res.typed = writeSymbol(k, t);
+    return res;
   }
 
   // ------------------------------------------------------------ the box
@@ -356,18 +358,81 @@
     try { return JSON.parse(sessionStorage.getItem(NOTE_KEY) || "null"); } catch (e) { return null; }
   }
 
-  // The note about a jump (sign, canonical form) floats at the bottom of the
-  // window, where it is seen next to the highlighted value, until closed.
-  function showBanner(text) {
+  // The value of a landing place as the page prints it: its LaTeX, its MathML, its decimal.
+  function printedValue(anchor) {
+    var el = doc.getElementById(anchor);
+    if (!el) return null;
+    var cell = el.tagName === "TD" ? el : el.querySelector("td[data-t]");
+    if (!cell) return null;
+    var decimal = "", small = cell.querySelector("small"), i;
+    if (small) decimal = small.textContent;
+    else for (i = 0; i < cell.childNodes.length; i++) if (cell.childNodes[i].nodeType === 3) decimal += cell.childNodes[i].textContent;
+    return { tex: cell.getAttribute("data-t"), math: cell.querySelector("math"), decimal: decimal.trim() || "0" };
+  }
+
+  // factor * a printed value, as text: only the sign changes (the site prints every value sign first).
+  function signedTex(tex, factor) {
+    if (factor > 0 || tex === "0") return tex;
+    if (tex.charAt(0) === "-") return tex.slice(1);
+    return /[+-]/.test(tex) ? "-\\left(" + tex + "\\right)" : "-" + tex;
+  }
+  function signedDecimal(text, factor) {
+    if (factor > 0 || /^[-\u2212]?0(\.0*)?$/.test(text)) return text;
+    return text.charAt(0) === "-" ? text.slice(1) : "-" + text;
+  }
+  function signedMath(math, factor) {
+    var out = math.cloneNode(true);
+    if (factor > 0 || !out.firstElementChild) return out;
+    var first = out.firstElementChild;
+    if (first.tagName.toLowerCase() === "mo" && first.textContent === "\u2212") { out.removeChild(first); return out; }
+    var minus = doc.createElementNS(out.namespaceURI, "mo");
+    minus.textContent = "\u2212";
+    out.insertBefore(minus, first);
+    return out;
+  }
+
+  // The symbol as the reader typed it (or as a link named it), with its own
+  // value, sign, decimal and LaTeX; the row it is filed under stays highlighted.
+  function landing(state) {
+    if (!state.typed) return null;
+    var v = printedValue(state.to.split("#")[1]);
+    if (!v || !v.math) return null;
+    var factor = state.factor || 1, tex = signedTex(v.tex, factor);
+    var p = doc.createElement("p");
+    p.className = "said";
+    var sym = doc.createElement("span");
+    sym.className = "typed";
+    sym.textContent = state.typed + " =";
+    p.appendChild(sym);
+    p.appendChild(doc.createTextNode(" "));
+    p.appendChild(signedMath(v.math, factor));
+    var dec = doc.createElement("small");
+    dec.textContent = signedDecimal(v.decimal, factor);
+    p.appendChild(dec);
+    p.appendChild(copyButton("TeX", "Copy the LaTeX of this value: " + tex, function () { return tex; }));
+    p.setAttribute("data-value", tex);
+    return p;
+  }
+
+  // The note about a jump floats at the bottom of the window, where it is seen
+  // next to the highlighted value, until closed.
+  function showBanner(text, state) {
     var old = doc.getElementById("jump-note");
     if (old) old.parentNode.removeChild(old);
-    if (!text) return;
+    var said = state ? landing(state) : null;
+    if (!text && !said) return;
     var note = doc.createElement("div");
     note.id = "jump-note";
     note.className = "banner";
     note.setAttribute("role", "status");
-    var p = doc.createElement("p");
-    p.textContent = text;
+    var p = doc.createElement("div");
+    if (said) p.appendChild(said);
+    if (text) {
+      var ctx = doc.createElement("p");
+      ctx.className = "ctx";
+      ctx.textContent = text;
+      p.appendChild(ctx);
+    }
     var close = doc.createElement("button");
     close.type = "button";
     close.textContent = "\u00d7";
@@ -466,7 +531,9 @@
         out.textContent = res.text;
         return;
       }
-      remember({ fam: fam, values: values, to: res.path + "#" + res.anchor, note: res.text });
+      var state = { fam: fam, values: values, to: res.path + "#" + res.anchor, note: res.text,
+        typed: res.typed, factor: res.factor };
+      remember(state);
       if (res.path === HERE) {
         if (location.hash === "#" + res.anchor) {
           var el = doc.getElementById(res.anchor);
@@ -474,7 +541,7 @@
         } else {
           location.hash = res.anchor;
         }
-        showBanner(res.text);
+        showBanner(res.text, state);
       } else {
         location.href = ROOT + res.path + "#" + res.anchor;
       }
@@ -490,7 +557,7 @@
     }
     if (fam) select.value = fam;
     layout(state && state.fam === select.value ? state.values : null);
-    if (state && state.note && state.to === HERE + decodeURIComponent(location.hash)) showBanner(state.note);
+    if (state && state.to === HERE + decodeURIComponent(location.hash)) showBanner(state.note, state);
     box.hidden = false;
 
     // "/" focuses the box from anywhere on the page.
@@ -504,10 +571,59 @@
     });
   }
 
+  // A link may name any form of a symbol in the page's family ("#1,1/2,1/2;1,1/2,3/2;1,1,2"):
+  // it is taken to the row the form is filed under, and the form is shown with its own value.
+  function followForm() {
+    var hash = decodeURIComponent(location.hash.slice(1));
+    if (!hash || doc.getElementById(hash) || !DATA) return;
+    var famKey = doc.body.className, id = null;
+    KIND_ORDER.forEach(function (k) { if (!id && KINDS[k].family === famKey && !KINDS[k].map) id = k; });
+    if (!id) return;
+    var k = KINDS[id], parts = hash.split(";"), t = [], res;
+    if (parts.length !== k.groups.length) return;
+    try {
+      k.groups.forEach(function (g, gi) {
+        var items = parts[gi].split(",");
+        if (items.length !== g.length) throw new InputError("shape");
+        g.forEach(function (at, i) { t[at] = doubled(items[i], k.names[at]); });
+      });
+      res = resolve(id, t);
+    } catch (e) {
+      if (e instanceof InputError) return;
+      throw e;
+    }
+    if (res.kind !== "ok") { showBanner(writeSymbol(k, t) + ": " + res.text, null); return; }
+    var state = { fam: id, values: t.map(half), to: res.path + "#" + res.anchor, note: res.text,
+      typed: res.typed, factor: res.factor };
+    remember(state);
+    if (res.path === HERE) { location.replace("#" + res.anchor); showBanner(res.text, state); }
+    else location.replace(ROOT + res.path + "#" + res.anchor);
+  }
+
+  // On a narrow screen the box is folded away (CSS) behind a button in the bar.
+  function addFindToggle(box) {
+    var bar = doc.querySelector(".top .bar"), top = box.parentNode;
+    if (!bar) return;
+    var b = doc.createElement("button");
+    b.type = "button";
+    b.className = "find";
+    b.textContent = "Go to\u2026";
+    b.setAttribute("aria-expanded", "false");
+    b.addEventListener("click", function () {
+      var open = !top.classList.contains("open");
+      top.classList.toggle("open", open);
+      b.setAttribute("aria-expanded", String(open));
+      if (open) { var first = box.querySelector("input"); if (first) first.focus(); }
+    });
+    bar.appendChild(b);
+  }
+
   function start() {
     addCopyButtons();
     var box = doc.getElementById("jump");
-    if (box && DATA && KIND_ORDER.length) buildBox(box);
+    if (box && DATA && KIND_ORDER.length) { buildBox(box); addFindToggle(box); }
+    followForm();
+    window.addEventListener("hashchange", followForm);
   }
 
   if (doc.readyState === "loading") doc.addEventListener("DOMContentLoaded", start);
