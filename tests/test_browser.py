@@ -410,3 +410,68 @@ def test_a_link_to_one_form_shows_that_form(clip_tab, site):
     _landed(clip_tab.page, path, anchor)
     _check_said(clip_tab, "9j", form)
     assert clip_tab.problems == []
+
+
+# -- layout at a laptop's and a phone's size, and in print (issue 8) --------------------------------
+@pytest.fixture(scope="module")
+def wide_site(tmp_path_factory):
+    """A build whose widest CG page is 4 ⊗ 4 (nine columns m1)."""
+    recipe = recipe_from_mapping({"cg": {"max_j": 4}})
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = BuildMeta("tablegen", "0.1.0", "cd" * 32, recipe.toml_text(), recipe.title, (("cg", 1),))
+    root = tmp_path_factory.mktemp("wide") / "site"
+    for path, data in render_html(plan, book, meta):
+        target = root / path
+        target.parent.mkdir(parents=True, exist_ok=True)
+        target.write_bytes(data)
+    return root
+
+
+def test_a_4x4_cg_page_fits_a_laptop_screen(browser, wide_site):
+    w = Watched(browser, wide_site)  # 1280 × 800
+    try:
+        w.open(_CG.page_path("cg", 8, 8))
+        page = w.page
+        # the page itself never scrolls sideways; the table scrolls inside its own box
+        assert page.evaluate("document.documentElement.scrollWidth") <= 1280
+        box = page.locator(".scroll").first
+        assert box.evaluate("b => b.scrollWidth > b.clientWidth")
+        # headers stay in view while the table's box scrolls down and across
+        head = page.locator(".grid thead th").nth(3)
+        row_head = page.locator(".grid tbody th").first
+        top0, left0 = box.bounding_box()["y"], box.bounding_box()["x"]
+        box.evaluate("b => { b.scrollTop = 200; b.scrollLeft = 300; }")
+        assert abs(head.bounding_box()["y"] - top0) < 2
+        assert abs(row_head.bounding_box()["x"] - left0) < 2
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+@pytest.mark.parametrize("path", PAGES)
+def test_the_header_takes_at_most_a_tenth_of_a_phone_screen(browser, site, path):
+    w = Watched(browser, site[0])
+    w.context.close()
+    w.context = browser.new_context(viewport={"width": 390, "height": 844}, is_mobile=True, has_touch=True)
+    w.page = w.context.new_page()
+    try:
+        w.open(path)
+        assert w.page.locator("header.top").bounding_box()["height"] <= 844 / 10
+        assert w.page.evaluate("document.documentElement.scrollWidth") <= 390
+        # the folded jump box opens from its button and still works
+        w.page.locator(".bar .find").click()
+        assert w.page.locator("#jump form").is_visible()
+    finally:
+        w.close()
+
+
+def test_print_hides_downloads_and_buttons(tab):
+    for path in ("index.html", "cg/j1-1-j2-0.5.html", "6j/jmax-1.html"):
+        tab.open(path)
+        tab.page.emulate_media(media="print")
+        assert tab.page.locator("button").count() >= 1
+        assert all(not b.is_visible() for b in tab.page.locator("button").all())
+        assert all(not a.is_visible() for a in tab.page.locator(".dl a").all())
+        assert tab.page.locator("table").first.is_visible()  # the values themselves print
+        tab.page.emulate_media(media="screen")
