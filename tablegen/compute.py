@@ -35,6 +35,7 @@ class Shown:
     square: str
     decimal: str
     tex: str  # in the recipe's LaTeX style
+    zero_rule: str = ""  # a zero value: the selection rule that makes it zero, "id: text" (kind's zero_rule)
 
     @property
     def tex_abs(self) -> str:
@@ -45,7 +46,7 @@ class Shown:
 ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
 
 
-def show(value: Surd, digits: int, style: str) -> Shown:
+def show(value: Surd, digits: int, style: str, zero_rule: object = None) -> Shown:
     """All text forms of one value.
 
     A value that is a function (a rotation function d(beta) as a trigonometric
@@ -60,6 +61,7 @@ def show(value: Surd, digits: int, style: str) -> Shown:
         square=str(squared()) if squared else "",
         decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
+        zero_rule=str(zero_rule) if zero_rule else "",
     )
 
 
@@ -77,7 +79,12 @@ def wanted_keys(plan: SitePlan) -> list[tuple[str, tuple[int, ...]]]:
 
 def _compute_chunk(args: tuple[list[tuple[str, tuple[int, ...]]], int, str]) -> list[Shown]:
     keys, digits, style = args
-    return [show(kind(k).doubled(*key), digits, style) for k, key in keys]
+    out = []
+    for k, key in keys:
+        record = kind(k)
+        value = record.doubled(*key)
+        out.append(show(value, digits, style, record.zero_rule(key) if value == 0 else None))
+    return out
 
 
 def compute_values(

@@ -387,3 +387,23 @@ def test_other_recipes_render_with_working_links(mapping):
             assert parsed[table.page].tex.get(entry.anchor, shown.tex) == shown.tex
             if shown.value:
                 assert shown.decimal in files[table.page].decode("utf-8")
+
+
+def test_every_zero_shown_names_the_rule_that_makes_it_zero(built):
+    # selection rules: triangle, projection sum, parity of (j1 j2 j3; 0 0 0) (Edmonds 1957, ch. 3 — from memory)
+    from tablegen.kinds import kind
+
+    _, plan, book, _, files = built
+    seen = 0
+    for table in plan.tables:
+        text = files[table.page].decode("utf-8")
+        for entry in table.entries:
+            if book[(table.kind, entry.key)].value != 0:
+                continue
+            rule = kind(table.kind).zero_rule(entry.key)
+            assert rule is not None, (table.kind, entry.key)
+            at = text.index(f'id="{entry.anchor}"')
+            place = text[at : text.index("</t", at + 1) if table.kind in ("cg", "3j") else text.index("</tr>", at)]
+            assert f"zero by {rule}" in place, (table.page, entry.anchor)
+            seen += 1
+    assert seen > 0  # the test build has zeros (parity in CG/3j grids, cancellations in 6j/9j)

@@ -47,6 +47,7 @@ class Cell:
     note: str  # the quantum number not given by row and column (grid: m2)
     twin: str | None  # relative link to the same number in the twin family
     zero: bool
+    why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
 
 
 @dataclass(frozen=True)
@@ -88,6 +89,7 @@ class ClassRow:
     minus: tuple[str, ...]  # forms equal to minus the value
     companions: tuple[Companion, ...] = ()
     zero: bool = False
+    why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
 
 
 def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell:
@@ -100,6 +102,7 @@ def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell
         note=note,
         twin=relative_url(page.path, entry.twin) if entry.twin else None,
         zero=not s.value,
+        why=s.zero_rule,
     )
 
 
@@ -195,6 +198,7 @@ def _class_row(site: "_Site", fam: Family, entry: Entry) -> ClassRow:
         minus=tuple(k.text(m) for m, sign in entry.members if sign < 0),
         companions=tuple(companions),
         zero=not s.value,
+        why=s.zero_rule,
     )
 
 

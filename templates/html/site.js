@@ -364,7 +364,7 @@
     if (!el) return null;
     var cell = el.tagName === "TD" ? el : el.querySelector("td[data-t]");
     if (!cell) return null;
-    var decimal = "", small = cell.querySelector("small"), i;
+    var decimal = "", small = cell.querySelector("small:not(.why)"), i;
     if (small) decimal = small.textContent;
     else for (i = 0; i < cell.childNodes.length; i++) if (cell.childNodes[i].nodeType === 3) decimal += cell.childNodes[i].textContent;
     return { tex: cell.getAttribute("data-t"), math: cell.querySelector("math"), decimal: decimal.trim() || "0" };
