@@ -21,7 +21,7 @@ from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.render.data import render_data
 from tablegen.render.html import asset_paths, relative_url, render_html
-from tablegen.symmetry import ninej_canonical, sixj_canonical
+from tablegen.symmetry import sixj_tetrahedral_members, ninej_canonical, sixj_canonical
 
 HOSTILE_TITLE = "Tables <script>alert('t')</script> & more"
 HOSTILE_NOTES = 'Line one <img src=x onerror="alert(1)"> & \'quoted\'\nline two </p><script>bad()</script>'
@@ -245,20 +245,42 @@ def _h(t: int) -> str:
     return str(t // 2) if t % 2 == 0 else f"{t}/2"
 
 
+def _braced(member) -> str:
+    return "{" + "; ".join(" ".join(_h(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
+
+
 def test_symbol_pages_list_every_form_and_the_racah_w(built):
-    _, plan, book, _, files = built
+    # a row lists its ordinary forms (6j: 24 tetrahedral forms, Edmonds 1957, eq. 6.2.4; 9j: row/column
+    # permutations and the transpose, eq. 6.4.6 — from memory); Regge partners are linked, never listed as forms
+    recipe, plan, book, _, files = built
     for table in plan.tables:
         if table.family not in ("6j", "9j"):
             continue
+        fam = plan.family(table.family)
+        f = recipe.family(table.family)
         text = files[table.page].decode("utf-8")
         for entry in table.entries:
             row = text[text.index(f'<tr id="{entry.anchor}"') :]
             row = row[: row.index("</tr>")]
-            for member, sign in entry.members:
-                shown_form = "{" + "; ".join(" ".join(_h(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
-                assert f"<li>{shown_form}" in row, (entry.anchor, shown_form)
-            if any(s < 0 for _, s in entry.members):
+            forms = fam.layout.filed_by(*entry.key)
+            assert forms[0] == (entry.key, 1)  # filed under its largest form
+            for member, sign in forms:
+                assert f"<li>{_braced(member)}" in row, (entry.anchor, member)
+            if any(s < 0 for _, s in forms):
                 assert "Equal to minus the value" in row
+            # every other form of the same value is a form of a linked partner or lies beyond the range
+            ordinary = {m for m, _ in forms}
+            every = fam.kind_record.members(*entry.key)  # every symmetry, Regge's included
+            assert entry.members == tuple(forms)  # the data files list the class as filed
+            beyond = [m for m, _ in every if any(not f.min_tj <= x <= f.max_tj for x in m)]
+            assert entry.beyond == (len(beyond) if entry.partners or beyond else 0)
+            for m, _ in every:
+                if m in ordinary or m in beyond:
+                    continue
+                canon = fam.layout.filed_by(*m)[0][0]
+                assert any(p.endswith("#" + fam.layout.anchor(canon, fam.kind_record.notation.groups)) for p in entry.partners)
+            for target in entry.partners:
+                assert f'href="{relative_url(table.page, target)}"' in row
             for c in plan.family(table.family).companions:
                 w_args, w_sign = c.mapping(entry.key)
                 assert f'data-t="{book[(c.kind, w_args)].tex}"' in row
@@ -278,7 +300,10 @@ def test_every_page_loads_the_jump_data_from_the_records(built):
     assert m
     facts = json.loads(m.group(1))
     assert {k: v["range"] for k, v in facts["families"].items()} == {f.family: [f.min_tj, f.max_tj] for f in recipe.families}
-    assert facts["families"]["6j"]["pages"] == list(dict(plan.family_pages)["6j"])
+    # classes: each page with the first (smallest) canonical form on it, in plan order
+    assert [p for p, _ in facts["families"]["6j"]["pages"]] == list(dict(plan.family_pages)["6j"])
+    for (path, first), table in zip(facts["families"]["6j"]["pages"], plan.tables_of("6j")):
+        assert table.page == path and tuple(first) == min(e.key for e in table.entries)
     assert [k["key"] for k in facts["kinds"]] == ["cg", "3j", "6j", "w", "9j"]
     # the patterns the script fills in give the plan's own names
     cg = facts["families"]["cg"]
@@ -298,7 +323,9 @@ def test_canonical_forms_reachable_by_name(built):
     rows = ((0, 1, 2), (3, 4, 5), (6, 7, 8))
     for table in plan.tables_of("6j"):
         for entry in table.entries:
-            assert entry.anchor == ClassesLayout.anchor(sixj_canonical(*entry.key)[0], rows[:2])
+            # filed under its largest tetrahedral form (Edmonds 1957, eq. 6.2.4 — from memory)
+            assert entry.anchor == ClassesLayout.anchor(sixj_tetrahedral_members(*entry.key)[0][0], rows[:2])
+            assert sixj_canonical(*entry.key)[0] >= entry.key  # a Regge partner may be larger: never filed under it
     for table in plan.tables_of("9j"):
         for entry in table.entries:
             assert entry.anchor == ClassesLayout.anchor(ninej_canonical(*entry.key)[0], rows)

@@ -78,7 +78,7 @@ class Companion:
 
 @dataclass(frozen=True)
 class ClassRow:
-    """One symmetry class of a classes page."""
+    """One class of a classes page: the symbols equal under the ordinary symmetries."""
 
     anchor: str
     symbol: Markup
@@ -90,6 +90,8 @@ class ClassRow:
     companions: tuple[Companion, ...] = ()
     zero: bool = False
     why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
+    partners: tuple[tuple[str, str], ...] = ()  # (symbol text, link) of each Regge partner on the site
+    beyond: int = 0  # forms of the same value with a j beyond the range (not on the site)
 
 
 def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell:
@@ -179,7 +181,7 @@ def _grid_index(site: "_Site", page: Page, fam: Family) -> dict:
 
 
 # -- classes ------------------------------------------------------------------------------
-def _class_row(site: "_Site", fam: Family, entry: Entry) -> ClassRow:
+def _class_row(site: "_Site", page: Page, fam: Family, entry: Entry) -> ClassRow:
     k = fam.kind_record
     s = site.shown(fam.kind, entry.key)
     companions = []
@@ -188,38 +190,80 @@ def _class_row(site: "_Site", fam: Family, entry: Entry) -> ClassRow:
         other = site.shown(c.kind, args)
         math = mathml.equation(mathml.symbol(kind(c.kind).notation, args), mathml.value_inner(other.tex))
         companions.append(Companion(Markup(math), other.tex, sign < 0))
+    forms = fam.layout.filed_by(*entry.key)  # the class: signs relative to its canonical form, the key
+    left, right = k.notation.brackets or "{}"
+    partners = tuple(
+        (f"{left}{_dash(target.split('#', 1)[1]).replace(',', ' ').replace(';', '; ')}{right}", relative_url(page.path, target))
+        for target in entry.partners
+    )
     return ClassRow(
         anchor=entry.anchor,
         symbol=Markup(mathml.symbol(k.notation, entry.key)),
         tex=s.tex,
         math=Markup(mathml.value_inner(s.tex)),
         decimal=s.decimal,
-        plus=tuple(k.text(m) for m, sign in entry.members if sign > 0),
-        minus=tuple(k.text(m) for m, sign in entry.members if sign < 0),
+        plus=tuple(k.text(m) for m, sign in forms if sign > 0),
+        minus=tuple(k.text(m) for m, sign in forms if sign < 0),
         companions=tuple(companions),
         zero=not s.value,
         why=s.zero_rule,
+        partners=partners,
+        beyond=entry.beyond,
     )
 
 
 def _classes_page(site: "_Site", page: Page) -> bytes:
     table = site.plan.table(page.tables[0])
     fam = site.plan.family(table.family)
-    classes = [_class_row(site, fam, e) for e in table.entries]
+    sections = [{"title": s.title, "anchor": s.anchor, "classes": [_class_row(site, page, fam, e) for e in s.entries]}
+                for s in table.sections]
+    classes = [c for s in sections for c in s["classes"]]
     return site.render(
         "classes.html",
         page,
         table=table,
         fam=fam,
-        section=table.sections[0],
-        classes=classes,
+        sections=sections,
+        count=len(classes),
         forms=sum(len(c.plus) + len(c.minus) for c in classes),
         files=site.files(page, table),
     )
 
 
+def _classes_index(site: "_Site", page: Page, fam: Family) -> dict:
+    """Per first entry: its pages' sections (second entry) and truthful counts.
+
+    Forms counted are those with every j in the range (each on exactly one row);
+    forms of the same values with a j beyond the range are counted apart, once
+    per value class on the page.
+    """
+    leads: dict[int, dict] = {}
+    for t in site.plan.tables_of(fam.key):
+        (name, value), = t.params
+        item = leads.setdefault(value, {"name": name, "label": _qn(value), "href": relative_url(page.path, t.page),
+                                        "sections": [], "count": 0, "forms": 0, "beyond": 0, "seen": set()})
+        for sec in t.sections:
+            if not any(x["title"] == sec.title for x in item["sections"]):
+                item["sections"].append({"title": sec.title, "label": _qn(sec.params[0][1]),
+                                         "href": relative_url(page.path, f"{t.page}#{sec.anchor}")})
+            for e in sec.entries:
+                item["count"] += 1
+                item["forms"] += len(fam.layout.filed_by(*e.key))
+                if e.beyond:
+                    value_class = fam.kind_record.members(*e.key)[0][0]
+                    if value_class not in item["seen"]:
+                        item["seen"].add(value_class)
+                        item["beyond"] += e.beyond
+    out = []
+    for item in leads.values():
+        item.pop("seen")
+        out.append(item)
+    second = fam.kind_record.arguments[1]
+    return {"leads": out, "second": second}
+
+
 def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
-    """A list of the family's pages with their counts (classes and matrix layouts)."""
+    """A list of the family's pages with their counts (matrix layout)."""
     items = []
     for t in site.plan.tables_of(fam.key):
         (name, value), = t.params
@@ -257,4 +301,4 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
 
 
 PAGES = {"grid": _grid_page, "classes": _classes_page, "matrix": _matrix_page}
-INDEX_PARTS = {"grid": _grid_index, "classes": _pages_index, "matrix": _pages_index}
+INDEX_PARTS = {"grid": _grid_index, "classes": _classes_index, "matrix": _pages_index}

@@ -70,11 +70,13 @@ def _family(fam: Family, plan: SitePlan) -> dict:
         "kind": fam.kind,
         "title": fam.title,
         "range": [f.min_tj, f.max_tj],
-        "page": layout.page_pattern(fam.key),
     }
+    if hasattr(layout, "page_pattern"):
+        out["page"] = layout.page_pattern(fam.key)
     if layout.name == "classes":
-        out["members"] = fam.kind_record.members.__name__
-        out["pages"] = list(dict(plan.family_pages)[fam.key])
+        out["members"] = fam.kind_record.members.__name__  # every symmetry: finds a form in range
+        out["filed"] = layout.filed_by.__name__  # the ordinary symmetries: the row a symbol is filed under
+        out["pages"] = layout.page_firsts(plan.tables_of(fam.key))  # [path, first canonical form] in order
     else:
         out["anchor"] = layout.anchor_pattern()
         out["params"] = list(layout.params)

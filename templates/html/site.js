@@ -252,7 +252,23 @@
   }
 
   // Named after the Python function each one mirrors (the kind's "members").
-  var MEMBERS = { sixj_members: sixjMembers, ninej_members: ninejMembers };
+  // 6j ordinary (tetrahedral) symmetries: permute the columns, and exchange upper
+  // and lower entries in two of them; all forms equal.
+  function sixjTetrahedralMembers(t) {
+    var cols = [[t[0], t[3]], [t[1], t[4]], [t[2], t[5]]], flips = [[0, 0, 0], [1, 1, 0], [1, 0, 1], [0, 1, 1]];
+    var forms = [], signs = [];
+    permutations(cols).forEach(function (p) {
+      flips.forEach(function (fl) {
+        var c = p.map(function (col, i) { return fl[i] ? [col[1], col[0]] : col; });
+        forms.push([c[0][0], c[1][0], c[2][0], c[0][1], c[1][1], c[2][1]]);
+        signs.push(1);
+      });
+    });
+    return [forms, signs];
+  }
+
+  var MEMBERS = { sixj_members: sixjMembers, ninej_members: ninejMembers,
+    sixj_tetrahedral_members: sixjTetrahedralMembers };
 
   // ------------------------------------------------------------ finding
   var KINDS = {}, KIND_ORDER = [];
@@ -308,22 +324,26 @@
     return result("ok", "", fill(fam.page, named, fileCode), fill(fam.anchor, named, half));
   }
 
-  // classes layout: the page of the canonical (largest) form, the row of its class.
+  // classes layout: a form of the symbol with every j in range (any symmetry of
+  // the kind, "members"), then the largest form of its ordinary class ("filed"):
+  // the row it is filed under; its page is the last whose first form is not larger.
   function classTarget(fam, k, t, what, sign) {
-    var both = MEMBERS[fam.members](t), forms = both[0], signs = both[1], i, any = false;
-    for (i = 0; i < forms.length; i++) if (inRange(fam, forms[i])) { any = true; break; }
-    if (!any) return result("bad", "No form of this " + k.key + " has every j in this build's range " + rangeText(fam) + ".");
-    var best = 0;
-    for (i = 1; i < forms.length; i++) if (greater(forms[i], forms[best])) best = i;
-    var canon = forms[best], total = sign * signs[best];
-    var path = fill(fam.page, { top: canon[0] }, fileCode);
-    if (fam.pages.indexOf(path) < 0) return result("bad", "This " + k.key + " is not part of this build.");
+    var both = MEMBERS[fam.members](t), forms = both[0], signs = both[1], i, at = -1;
+    if (inRange(fam, t)) at = forms.map(function (f) { return f.join(); }).indexOf(t.join());
+    for (i = 0; at < 0 && i < forms.length; i++) if (inRange(fam, forms[i])) at = i;
+    if (at < 0) return result("bad", "No form of this " + k.key + " has every j in this build's range " + rangeText(fam) + ".");
+    var own = MEMBERS[fam.filed](forms[at]), best = 0;
+    for (i = 1; i < own[0].length; i++) if (greater(own[0][i], own[0][best])) best = i;
+    var canon = own[0][best], total = sign * signs[at] * own[1][best];
+    var path = null;
+    for (i = 0; i < fam.pages.length; i++) if (!greater(fam.pages[i][1], canon)) path = fam.pages[i][0];
+    if (!path) return result("bad", "This " + k.key + " is not part of this build.");
     var same = canon.join() === t.join(), text = "";
     if (what) {
       text = what + " = " + minusOne(sign) + writeSymbol(k, t) +
-        (same ? "" : " = " + minusOne(total) + "the canonical form " + writeSymbol(k, canon)) + " (highlighted row).";
+        (same ? "" : " = " + minusOne(total) + writeSymbol(k, canon)) + " (highlighted row).";
     } else if (!same) {
-      text = "Filed under its canonical form " + writeSymbol(k, canon) + " (highlighted row)" +
+      text = "Filed under " + writeSymbol(k, canon) + " (highlighted row)" +
         (total < 0 ? ", which is \u22121 \u00d7 the symbol above." : ", which is equal to it.");
     }
     return result("ok", text, path, classAnchor(k, canon), total);
