@@ -481,3 +481,22 @@ def test_print_hides_downloads_and_buttons(tab):
         assert all(not a.is_visible() for a in tab.page.locator(".dl a").all())
         assert tab.page.locator("table").first.is_visible()  # the values themselves print
         tab.page.emulate_media(media="screen")
+
+
+def test_the_jump_box_reaches_a_pair_split_into_pages(browser, tmp_path):
+    # 9 ⊗ 9 has a page per J (pages stay light); <9 1; 9 -1 | 5 0> is on the J = 5 page
+    recipe = recipe_from_mapping({"cg": {"min_j": "9", "max_j": "9"}})
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = BuildMeta("tablegen", "0.1.0", "cd" * 32, recipe.toml_text(), recipe.title, (("cg", 1),))
+    for path, data in render_html(plan, book, meta):
+        (tmp_path / path).parent.mkdir(parents=True, exist_ok=True)
+        (tmp_path / path).write_bytes(data)
+    w = Watched(browser, tmp_path)
+    try:
+        w.open("index.html")
+        _type(w.page, "cg", ["9", "1", "9", "-1", "5", "0"])
+        _landed(w.page, _CG.page_path("cg", 18, 18, 10), _CG.anchor(10, 0, 2))
+        assert w.problems == []
+    finally:
+        w.close()

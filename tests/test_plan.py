@@ -381,3 +381,25 @@ def test_plan_and_values_ignore_the_hash_seed(plan) -> None:
             env=env, capture_output=True, text=True, timeout=120, check=True,
         )
         assert done.stdout.split() == here, seed
+
+
+def test_a_pair_too_large_for_one_page_gets_a_page_per_third_j() -> None:
+    # pages stay light (issue 8): 9 ⊗ 9 holds more values than one page may show
+    plan = plan_site(recipe_from_mapping({"cg": {"min_j": "9", "max_j": "9"}, "3j": {"min_j": "9", "max_j": "9"}}))
+    layout = plan.family("cg").layout
+    assert layout.split(18, 18)
+    tables = plan.tables_of("cg")
+    assert len(tables) == 19  # J = 18, 17, ..., 0
+    for t in tables:
+        (section,) = t.sections
+        tk = section.params[0][1]
+        assert t.page == f"cg/j1-9-j2-9-J-{tk // 2}.html" == layout.page_path("cg", 18, 18, tk)
+        assert len(t.entries) <= layout.page_cells
+        for e in t.entries:  # the twin link names the 3j's page of the same third j
+            page, anchor = e.twin.split("#")
+            assert page == f"3j/j1-9-j2-9-j3-{tk // 2}.html"
+    # every value of the pair once, and the parts chained and linked to each other
+    assert sum(len(t.entries) for t in tables) == sum((36 - max(0, abs(a + b))) // 2 + 1
+                                                      for a in range(-18, 19, 2) for b in range(-18, 19, 2))
+    pages = [p for p in plan.pages if p.kind == "cg"]
+    assert all(len([r for r in p.related if r.path.startswith("cg/j1-9-j2-9-J-")]) == 18 for p in pages)

@@ -167,11 +167,16 @@ def _grid_page(site: "_Site", page: Page) -> bytes:
 
 def _grid_index(site: "_Site", page: Page, fam: Family) -> dict:
     """A table of links, rows j1 and columns j2; each cell names the values of the third j its page holds."""
+    pages: dict[tuple[int, int], str] = {}
+    thirds: dict[tuple[int, int], list[int]] = {}
+    for t in site.plan.tables_of(fam.key):  # a split pair: its first part's page, every third j
+        pair = (t.param("j1"), t.param("j2"))
+        pages.setdefault(pair, t.page)
+        thirds.setdefault(pair, []).extend(s.params[0][1] for s in t.sections)
     links = {}
-    for t in site.plan.tables_of(fam.key):
-        thirds = [s.params[0][1] for s in t.sections]
-        span = _qn(thirds[0]) if len(thirds) == 1 else f"{_qn(min(thirds))}–{_qn(max(thirds))}"
-        links[(t.param("j1"), t.param("j2"))] = (relative_url(page.path, t.page), span)
+    for pair, ks in thirds.items():
+        span = _qn(ks[0]) if len(ks) == 1 else f"{_qn(min(ks))}–{_qn(max(ks))}"
+        links[pair] = (relative_url(page.path, pages[pair]), span)
     js = sorted({a for a, _ in links} | {b for _, b in links})
     return {
         "js": [half_text(t) for t in js],

@@ -80,6 +80,12 @@ def _family(fam: Family, plan: SitePlan) -> dict:
     else:
         out["anchor"] = layout.anchor_pattern()
         out["params"] = list(layout.params)
+    if hasattr(layout, "split"):  # grid: pairs too large for one page have a page per third j
+        pairs = sorted({(t.param("j1"), t.param("j2")) for t in plan.tables_of(fam.key)})
+        split = [f"{a},{b}" for a, b in pairs if layout.split(a, b)]
+        if split:
+            out["split"] = split
+            out["splitPage"] = layout.split_pattern(fam.key)
     return out
 
 

@@ -321,7 +321,9 @@
     if (!inRange(fam, params)) {
       return result("bad", fam.params.join(" and ") + " must be in this build's range " + rangeText(fam) + ".");
     }
-    return result("ok", "", fill(fam.page, named, fileCode), fill(fam.anchor, named, half));
+    var page = fam.page;  // a pair too large for one page has a page per third j
+    if (fam.split && fam.split.indexOf(named.j1 + "," + named.j2) >= 0) page = fam.splitPage;
+    return result("ok", "", fill(page, named, fileCode), fill(fam.anchor, named, half));
   }
 
   // classes layout: a form of the symbol with every j in range (any symmetry of
