@@ -24,6 +24,7 @@ from .compute import ValueBook, compute_values
 from .linkcheck import LinkCheck
 from .output import MANIFEST_FORMAT, Staging, check_target, sha256_hex
 from .plan import SitePlan, plan_site
+from .diskweight import check_bytes
 from .recipe import Recipe, check_size
 
 __all__ = ["build", "BuildResult", "family_counts", "render_outputs", "render_site", "manifest_fields"]
@@ -110,7 +111,7 @@ def build(
 ) -> BuildResult:
     """Write the site for ``recipe`` into ``out_dir`` (replacing a previous site)."""
     started = time.perf_counter()
-    check_size(recipe, allow_large)  # refuse before any computing
+    check_bytes(check_size(recipe, allow_large), allow_large)  # refuse before any computing: values, then bytes
     check_target(out_dir, discard_extra)  # refuse before any computing, too
 
     if progress:
