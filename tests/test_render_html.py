@@ -434,3 +434,22 @@ def test_every_zero_shown_names_the_rule_that_makes_it_zero(built):
             assert f"zero by {rule}" in place, (table.page, entry.anchor)
             seen += 1
     assert seen > 0  # the test build has zeros (parity in CG/3j grids, cancellations in 6j/9j)
+
+
+def test_the_index_reaches_every_6j_and_9j_section_and_counts_truthfully(built):
+    # two clicks from the index to a symbol: its first entry's section link, then the row (issue 8);
+    # the forms counted are exactly the symbols with every j in range (enumerated here independently)
+    from tablegen.kinds import kind
+    from tablegen.layouts import symbols_in_range
+
+    recipe, plan, _, _, files = built
+    index = files["index.html"].decode("utf-8")
+    for key in ("6j", "9j"):
+        f = recipe.family(key)
+        for table in plan.tables_of(key):
+            for section in table.sections:
+                assert f'href="{table.page}#{section.anchor}"' in index, (table.page, section.anchor)
+        part = index[index.index(f'<section id="{key}"') :]
+        part = part[: part.index("</section>")]
+        counted = sum(int(n) for n in re.findall(r"(\d+) forms? in range", part))
+        assert counted == sum(1 for _ in symbols_in_range(kind(key), f.min_tj, f.max_tj))
