@@ -453,3 +453,18 @@ def test_the_index_reaches_every_6j_and_9j_section_and_counts_truthfully(built):
         part = part[: part.index("</section>")]
         counted = sum(int(n) for n in re.findall(r"(\d+) forms? in range", part))
         assert counted == sum(1 for _ in symbols_in_range(kind(key), f.min_tj, f.max_tj))
+
+
+def test_a_full_classes_or_grid_page_stays_under_two_megabytes(built):
+    # pages stay light (issue 8): a page holds at most page_rows classes (page_cells grid values), so the
+    # heaviest row or cell seen here, times that many, must stay under 2 MB
+    _, plan, _, _, files = built
+    for fam in plan.families:
+        limit = getattr(fam.layout, "page_rows", None) or getattr(fam.layout, "page_cells", None)
+        if limit is None:
+            continue
+        sizes = sorted((len(t.entries), len(files[t.page])) for t in plan.tables_of(fam.key))
+        (n0, b0), (n1, b1) = sizes[0], sizes[-1]
+        assert n1 > n0
+        per_value = (b1 - b0) / (n1 - n0)  # a page's fixed part (header, prose) apart
+        assert b0 + per_value * (limit - n0) < 2_000_000, (fam.key, per_value)
