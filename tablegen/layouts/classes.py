@@ -62,7 +62,7 @@ class ClassesLayout:
     class_size: int  # forms a generic class holds under every symmetry of the kind (144 for 6j, 72 for 9j)
     filed_by: Callable[..., list] = field(repr=False)  # the ordinary symmetries: t -> [(form, sign)], largest first
     has_partners: bool = False  # the kind has symmetries beyond filed_by (Regge): pages show a partners column
-    page_rows: int = 400  # classes on one page at most (about 2.5 kB each: pages stay well under 2 MB)
+    page_rows: int = 400  # classes on one page at most (about 1 kB each: pages stay well under 2 MB)
     count_noun: str = "symmetry classes"
 
     name = "classes"
@@ -95,8 +95,8 @@ class ClassesLayout:
         out.sort()
         return out
 
-    def partners(self, k: "Kind", canon: tuple[int, ...]) -> tuple[list[tuple[int, ...]], int]:
-        """(canonical forms of the other ordinary classes of the same value, number of all its forms)."""
+    def partners(self, k: "Kind", canon: tuple[int, ...]) -> tuple[list[tuple[int, ...]], list]:
+        """(canonical forms of the other ordinary classes of the same value, every form of that value)."""
         full = k.members(*canon)
         out, done = [], set()
         for m, _ in full:
@@ -106,7 +106,7 @@ class ClassesLayout:
             done.update(f for f, _ in forms)
             if forms[0][0] != canon:
                 out.append(forms[0][0])
-        return sorted(out), len(full)
+        return sorted(out), full
 
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
         k = fam.kind_record
@@ -139,8 +139,8 @@ class ClassesLayout:
             for rows in secs:
                 entries = []
                 for c in rows:
-                    mates, _ = self.partners(k, c)
-                    beyond = sum(1 for m, _ in k.members(*c) if not within(m)) if mates else 0
+                    mates, every = self.partners(k, c)
+                    beyond = sum(1 for m, _ in every if not within(m)) if mates else 0
                     linked = tuple(f"{where[m]}#{self.anchor(m, groups)}" for m in mates if m in where)
                     forms = len(self.filed_by(*c))
                     entries.append(Entry(c, self.anchor(c, groups), None, forms, fam.kind, partners=linked, beyond=beyond,
