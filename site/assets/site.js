@@ -587,6 +587,7 @@
       var tag = (ev.target && ev.target.tagName) || "";
       if (ev.key === "/" && tag !== "INPUT" && tag !== "TEXTAREA" && tag !== "SELECT") {
         ev.preventDefault();
+        box.parentNode.classList.add("open");  // unfold it on a narrow screen
         inputs[0].focus();
         box.scrollIntoView();
       }
