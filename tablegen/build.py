@@ -26,6 +26,7 @@ from .errors import RecipeError
 from .linkcheck import LinkCheck
 from .output import MANIFEST, MANIFEST_FORMAT, SUMS, Staging, check_target, seal, sha256_hex
 from .plan import SitePlan, plan_site
+from .diskweight import check_bytes
 from .recipe import Recipe, check_size
 
 __all__ = [
@@ -171,7 +172,8 @@ def build(
 ) -> BuildResult:
     """Write the site for ``recipe`` into ``out_dir`` (replacing a previous site)."""
     started = time.perf_counter()
-    estimate = check_size(recipe, allow_large)  # refuse before any computing
+    estimate = check_size(recipe, allow_large)  # refuse before any computing: values, then bytes
+    check_bytes(estimate, allow_large)
     check_target(out_dir, discard_extra)  # refuse before any computing, too
     check_text(recipe)
 

@@ -40,6 +40,7 @@ class Shown:
     square: str
     decimal: str
     tex: str  # in the recipe's LaTeX style
+    zero_rule: str = ""  # a zero value: the selection rule that makes it zero, "id: text" (kind's zero_rule)
 
     @property
     def tex_abs(self) -> str:
@@ -69,7 +70,7 @@ def signed_square_text(value: Surd) -> str:
     return f"-{text}" if value.sign < 0 else text
 
 
-def show(value: Surd, digits: int, style: str) -> Shown:
+def show(value: Surd, digits: int, style: str, zero_rule: object = None) -> Shown:
     """All text forms of one value.
 
     A value that is a function (a rotation function d(beta) as a trigonometric
@@ -84,6 +85,7 @@ def show(value: Surd, digits: int, style: str) -> Shown:
         square=signed_square_text(value) if squared else "",
         decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
+        zero_rule=str(zero_rule) if zero_rule else "",
     )
 
 
@@ -101,7 +103,12 @@ def wanted_keys(plan: SitePlan) -> list[tuple[str, tuple[int, ...]]]:
 
 def _compute_chunk(args: tuple[list[tuple[str, tuple[int, ...]]], int, str]) -> list[Shown]:
     keys, digits, style = args
-    return [show(kind(k).doubled(*key), digits, style) for k, key in keys]
+    out = []
+    for k, key in keys:
+        record = kind(k)
+        value = record.doubled(*key)
+        out.append(show(value, digits, style, record.zero_rule(key) if value == 0 else None))
+    return out
 
 
 def usable_cpus() -> int:

@@ -20,6 +20,7 @@ from typing import Callable
 from .kinds import Kind, kind
 from .kinds.sixj import w_of_sixj
 from .layouts import ClassesLayout, GridLayout, Layout, MatrixLayout
+from .symmetry import ninej_members, sixj_tetrahedral_members
 
 __all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
            "ClassesLayout", "MatrixLayout"]
@@ -95,7 +96,7 @@ FAMILIES: tuple[Family, ...] = (
         nav_label="CG",
         layout=GridLayout(
             third="J", row="M", row_tag="ket", m_sum_sign=1, twin="3j", row_states=True,
-            page_title="⟨{j1} m1; {j2} m2 | J M⟩ — coupling {j1} ⊗ {j2}", page_label="{j1} ⊗ {j2}",
+            page_title="⟨{j1} m1; {j2} m2 | J M⟩: every J from j1 = {j1} and j2 = {j2}", page_label="j1 = {j1}, j2 = {j2}",
         ),
         convention="Condon–Shortley phase. ⟨j1 m1; j2 m2 | J M⟩ = (−1)^(j1−j2+M) √(2J+1) (j1 j2 J; m1 m2 −M). "
         "Coupling order j1 ⊗ j2; the reversed order differs by (−1)^(j1+j2−J).",
@@ -116,7 +117,7 @@ FAMILIES: tuple[Family, ...] = (
         kind="6j",
         title="Wigner 6j symbols and Racah W",
         nav_label="6j & W",
-        layout=ClassesLayout(class_size=144),
+        layout=ClassesLayout(class_size=24, filed_by=sixj_tetrahedral_members, has_partners=True),
         convention="Condon–Shortley phase. W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f}. "
         "All forms of a class (tetrahedral and Regge symmetries) are equal.",
         companions=(Companion("w", "Racah W", w_of_sixj),),
@@ -126,7 +127,7 @@ FAMILIES: tuple[Family, ...] = (
         kind="9j",
         title="Wigner 9j symbols",
         nav_label="9j",
-        layout=ClassesLayout(class_size=72),
+        layout=ClassesLayout(class_size=72, filed_by=ninej_members),
         convention="Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),

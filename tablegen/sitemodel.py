@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Callable
 
 from .spins import half_text
 
@@ -46,6 +46,9 @@ class Entry:
     twin: path#anchor of the same number in another family (CG <-> 3j), if tabulated.
     forms: classes layout only: how many distinct symbols the class holds (see ``members``).
     kind: the kinds.Kind key of the value.
+    partners: classes layout only: path#anchor of each other class of the same value
+        (Regge partners) on the site.
+    beyond: classes layout only: how many forms of the same value have a j beyond the range.
     """
 
     key: tuple[int, ...]
@@ -53,16 +56,23 @@ class Entry:
     twin: str | None = None
     forms: int = 0
     kind: str = ""
+    partners: tuple[str, ...] = ()
+    beyond: int = 0
+    filed_by: "Callable | None" = field(default=None, repr=False, compare=False)  # classes: the class's symmetries
 
     @property
     def members(self) -> tuple[tuple[tuple[int, ...], int], ...]:
         """Classes only: every symbol of the class with its sign, value(member) = sign * value(key).
 
-        Derived from the key on demand (the key is the class's canonical form,
-        listed first) rather than stored: a large build has millions of forms.
+        The class is the one the layout files the symbol under (``filed_by``, the
+        ordinary symmetries), else every symmetry of its kind.  Derived from the
+        key on demand (the key is the class's canonical form, listed first)
+        rather than stored: a large build has millions of forms.
         """
         if not self.forms:
             return ()
+        if self.filed_by is not None:
+            return tuple(self.filed_by(*self.key))
         from .kinds import kind
 
         return tuple(kind(self.kind).members(*self.key))

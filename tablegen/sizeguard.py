@@ -133,8 +133,11 @@ def _sampled_symbols(kind, lo: int, hi: int) -> int:
     return max(1, (hits * (hi - lo + 1) ** size) // _SAMPLES)
 
 
-def _class_count(kind, class_size: int, lo: int, hi: int) -> tuple[int, int, int]:
-    """(low, high, symbols): exact classes when enumerable, else bounds."""
+def _class_count(kind, layout, lo: int, hi: int) -> tuple[int, int, int]:
+    """(low, high, symbols): exact classes as the layout files them when enumerable, else bounds.
+
+    A class holds at most ``layout.class_size`` forms, so symbols / class_size bounds it from below.
+    """
     seen: set[tuple[int, ...]] = set()
     classes = symbols = 0
     try:
@@ -143,10 +146,10 @@ def _class_count(kind, class_size: int, lo: int, hi: int) -> tuple[int, int, int
             if s in seen:
                 continue
             classes += 1
-            seen.update(m for m, _ in kind.members(*s))
+            seen.update(m for m, _ in layout.filed_by(*s))
     except _OverBudget:
         estimated = max(symbols, _sampled_symbols(kind, lo, hi))
-        return max(classes, -(-estimated // class_size)), estimated, estimated
+        return max(classes, -(-estimated // layout.class_size)), estimated, estimated
     return classes, classes, symbols
 
 
@@ -158,7 +161,7 @@ def estimate_family(f) -> FamilyEstimate:
     fam = family(f.family)
     k = kind(fam.kind)
     if fam.layout.name == "classes":
-        low, high, symbols = _class_count(k, fam.layout.class_size, f.min_tj, f.max_tj)
+        low, high, symbols = _class_count(k, fam.layout, f.min_tj, f.max_tj)
     else:
         low = high = _grid_count(f.min_tj, f.max_tj)
         symbols = 0

@@ -29,6 +29,7 @@ __all__ = [
     "threej_members",
     "threej_canonical",
     "sixj_members",
+    "sixj_tetrahedral_members",
     "sixj_canonical",
     "ninej_members",
     "ninej_canonical",
@@ -134,6 +135,23 @@ def sixj_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
     found = {
         _sixj_from_sums(pa, pb) for pa in set(permutations(al)) for pb in set(permutations(be))
     }
+    return [(m, 1) for m in sorted(found, reverse=True)]
+
+
+def sixj_tetrahedral_members(*t: int) -> list[tuple[tuple[int, ...], int]]:
+    """The symbols equal to a 6j by its ordinary (tetrahedral) symmetries alone, largest first, all sign +1.
+
+    Any permutation of the columns, and exchanging upper and lower entries in
+    two of the columns (Edmonds 1957, eq. 6.2.4): the 24 forms a printed table
+    files under one entry.  The Regge symmetries (sixj_members) join up to six
+    such classes.
+    """
+    cols = ((t[0], t[3]), (t[1], t[4]), (t[2], t[5]))
+    found = set()
+    for p in permutations(cols):
+        for flip in ((0, 0, 0), (1, 1, 0), (1, 0, 1), (0, 1, 1)):
+            c = [col[::-1] if f else col for col, f in zip(p, flip)]
+            found.add((c[0][0], c[1][0], c[2][0], c[0][1], c[1][1], c[2][1]))
     return [(m, 1) for m in sorted(found, reverse=True)]
 
 

@@ -96,7 +96,7 @@ def tab(browser, site):
     w.close()
 
 
-PAGES = ["index.html", "cg/1x0.5.html", "3j/0.5x1.html", "6j/jmax-1.html", "9j/jmax-1.html",
+PAGES = ["index.html", "cg/j1-1-j2-0.5.html", "3j/j1-0.5-j2-1.html", "6j/j1-1.html", "9j/j11-1.html",
          "conventions.html", "methods.html", "cite.html"]
 
 
@@ -115,12 +115,12 @@ def test_page_loads_without_errors_from_disk(tab, path):
 
 def test_value_mathml_is_laid_out(tab, site):
     # a MathML-capable browser gives the formula a real box (W3C MathML Core)
-    tab.open("cg/1x0.5.html")
+    tab.open("cg/j1-1-j2-0.5.html")
     box = tab.page.locator('td[id="J=3/2,M=1/2,m1=1"] > math').bounding_box()
     assert box and box["width"] > 10 and box["height"] > 10
     root_box = tab.page.locator('td[id="J=3/2,M=1/2,m1=1"] msqrt').bounding_box()
     assert root_box and root_box["width"] > 5 and root_box["height"] > 5
-    tab.open("6j/jmax-1.html")
+    tab.open("6j/j1-1.html")
     sym = tab.page.locator("td.sym > math").first.bounding_box()
     assert sym and sym["height"] > 20  # a two-row array
     assert tab.problems == []
@@ -151,13 +151,19 @@ _CG, _3J = family("cg").layout, family("3j").layout
 _ROWS = ((0, 1, 2), (3, 4, 5), (6, 7, 8))
 
 
+_SMALL_PLAN = plan_site(recipe_from_mapping(SMALL))
+
+
 def _class_place(key_of_family: str, canon):
+    """The page and row of a filed class, from the Python plan."""
     layout = family(key_of_family).layout
-    return layout.page_path(key_of_family, canon[0]), layout.anchor(canon, _ROWS[: len(canon) // 3])
+    (page,) = [t.page for t in _SMALL_PLAN.tables_of(key_of_family) if any(e.key == canon for e in t.entries)]
+    return page, layout.anchor(canon, _ROWS[: len(canon) // 3])
 
 
 def _sixj_expected(key):
-    return _class_place("6j", sixj_canonical(*key)[0])
+    # filed under its largest tetrahedral form (Edmonds 1957, eq. 6.2.4 — from memory)
+    return _class_place("6j", family("6j").layout.filed_by(*key)[0][0])
 
 
 CASES = [
@@ -165,7 +171,7 @@ CASES = [
     ("index.html", "cg", ["1", "-1", "0.5", "1/2", "1/2", "-0.5"],
      _CG.page_path("cg", 2, 1), _CG.anchor(1, -1, -2)),
     # (1/2 1 3/2; -1/2 1 -1/2) from a page in a subfolder, with a typographic minus
-    ("3j/0x0.html", "3j", ["1/2", "1", "1.5", "\u22121/2", "1", "-1/2"],
+    ("3j/j1-0-j2-0.html", "3j", ["1/2", "1", "1.5", "\u22121/2", "1", "-1/2"],
      _3J.page_path("3j", 1, 2), _3J.anchor(3, -1, -1)),
 ]
 
@@ -181,12 +187,12 @@ def test_jump_box_lands_on_cg_and_3j_cells(tab, start, family, values, path, anc
 def test_jump_box_finds_a_6j_from_a_non_canonical_form(tab):
     key = (1, 1, 2, 1, 1, 0)  # {1/2 1/2 1; 1/2 1/2 0}
     path, anchor = _sixj_expected(key)
-    assert anchor != _class_place("6j", key)[1], "the test needs a non-canonical form"
-    tab.open("cg/0x0.html")
+    assert anchor != family("6j").layout.anchor(key, _ROWS[:2]), "the test needs a non-canonical form"
+    tab.open("cg/j1-0-j2-0.html")
     _type(tab.page, "6j", ["1/2", "1/2", "1", "1/2", "1/2", "0"])
     _landed(tab.page, path, anchor)
-    note = tab.page.locator("#jump-note").text_content()
-    assert "canonical form" in note
+    note = tab.page.locator("#jump-note .ctx").text_content()
+    assert note.startswith("Filed under {1 1/2 1/2; 0 1/2 1/2}")  # its largest tetrahedral form
     assert tab.problems == []
 
 
@@ -197,13 +203,13 @@ def test_jump_box_finds_a_racah_w_and_tells_the_sign(tab):
     tab.open("index.html")
     _type(tab.page, "w", ["1/2", "1/2", "1/2", "1/2", "1", "0"])
     _landed(tab.page, path, anchor)
-    note = tab.page.locator("#jump-note").text_content()
+    note = tab.page.locator("#jump-note .ctx").text_content()
     assert note.startswith("W(1/2 1/2 1/2 1/2; 1 0) = {1/2 1/2 1; 1/2 1/2 0}")  # a+b+c+d = 2: sign +1
     tab.page.goto((tab.root / "index.html").as_uri())
     _type(tab.page, "w", ["1", "1/2", "1/2", "1", "1/2", "1/2"])  # a+b+c+d = 3: sign -1
     path, anchor = _sixj_expected((2, 1, 1, 2, 1, 1))
     _landed(tab.page, path, anchor)
-    assert "= \u22121 \u00d7 {1 1/2 1/2; 1 1/2 1/2}" in tab.page.locator("#jump-note").text_content()
+    assert "= \u22121 \u00d7 {1 1/2 1/2; 1 1/2 1/2}" in tab.page.locator("#jump-note .ctx").text_content()
     assert tab.problems == []
 
 
@@ -211,10 +217,10 @@ def test_jump_box_finds_a_9j_from_a_non_canonical_form(tab):
     key = (1, 1, 2, 1, 1, 0, 2, 0, 2)  # {1/2 1/2 1; 1/2 1/2 0; 1 0 1}
     canon, sign = ninej_canonical(*key)
     assert canon != key, "the test needs a non-canonical form"
-    tab.open("6j/jmax-1.html")
+    tab.open("6j/j1-1.html")
     _type(tab.page, "9j", ["0.5", "1/2", "1", "1/2", "0.5", "0", "1", "0", "1"])
     _landed(tab.page, *_class_place("9j", canon))
-    note = tab.page.locator("#jump-note").text_content()
+    note = tab.page.locator("#jump-note .ctx").text_content()
     assert ("\u22121 \u00d7" in note) == (sign < 0)
     assert tab.problems == []
 
@@ -251,9 +257,10 @@ def _h(t: int) -> str:
 
 
 def _ket_latex(section, r: int, book) -> str:
-    """|J,M> = c1 |j1,m1>|j2,m2> + ..., written independently of the site script."""
+    """|(j1,j2) J,M> = c1 |j1,m1>|j2,m2> + ..., written independently of the site script."""
     tJ, tM = dict(section.params)["J"], section.rows[r]
-    text = f"|{_h(tJ)},{_h(tM)}\\rangle = "
+    tj1, tj2 = section.entries[0].key[0], section.entries[0].key[2]
+    text = f"|({_h(tj1)},{_h(tj2)})\\,{_h(tJ)},{_h(tM)}\\rangle = "
     first = True
     for entry in section.grid[r]:
         if entry is None or not book[("cg", entry.key)].value:
@@ -272,7 +279,7 @@ def test_copy_buttons_copy_the_latex(browser, site):
     root, plan, book = site
     w = Watched(browser, root, clipboard=True)
     try:
-        table = plan.table("cg-1x0.5")
+        table = plan.table("cg-j1-1-j2-0.5")
         entry = table.sections[0].grid[1][0]  # J = 3/2, M = 1/2, m1 = 1
         w.open(table.page)
         cell = w.page.locator(f'td[id="{entry.anchor}"]')
@@ -280,7 +287,7 @@ def test_copy_buttons_copy_the_latex(browser, site):
         cell.locator("button.cp").click()
         assert w.page.evaluate("navigator.clipboard.readText()") == book[("cg", entry.key)].tex
 
-        for pair in (plan.table("cg-1x1"), table):  # every state |J M> of two pages
+        for pair in (plan.table("cg-j1-1-j2-1"), table):  # every state |J M> of two pages
             w.open(pair.page)
             for section in pair.sections:
                 for r, anchor in enumerate(section.row_anchors):
@@ -331,6 +338,165 @@ def test_jump_box_lands_on_a_matrix_cell(browser, matrix_site):
         w.page.goto((root / "index.html").as_uri())
         _type(w.page, "6j", ["1/2", "1", "1/2", "1", "1/2", "1"])  # the same symbol, on the classes layout
         _landed(w.page, *_sixj_expected((1, 2, 1, 2, 1, 2)))
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+# -- the sign trap (issue 8): a typed or linked form shows its own value ------------------------
+def _signed_form(kind_key: str, fam_key: str, book):
+    """A form of a non-zero symbol whose value is −1 × its class's highlighted row, found from the Python side."""
+    from tablegen.kinds import kind
+    from tablegen.layouts import symbols_in_range
+
+    k = kind(kind_key)
+    for t in symbols_in_range(k, 0, 2):
+        members = k.members(*t)  # value(form) = sign * value(t); members[0] is the canonical form
+        for form, sign in members:
+            if sign * members[0][1] < 0 and k.doubled(*form):
+                return form
+    raise AssertionError(f"no form with sign -1 in {kind_key}")  # pragma: no cover
+
+
+def _check_said(tab, kind_key: str, form) -> None:
+    """The note shows value(form) with its own sign: LaTeX, decimal and the copied LaTeX."""
+    from tablegen.kinds import kind
+
+    value = kind(kind_key).doubled(*form)
+    tex = value.latex("root")  # the small build's recipe style
+    said = tab.page.locator("#jump-note .said")
+    said.wait_for(state="visible")
+    assert said.get_attribute("data-value") == tex
+    assert value.decimal(15) in said.text_content()
+    said.locator("button.cp").click()
+    assert tab.page.evaluate("navigator.clipboard.readText()") == tex
+
+
+@pytest.fixture
+def clip_tab(browser, site):
+    w = Watched(browser, site[0], clipboard=True)
+    yield w
+    w.close()
+
+
+def test_a_typed_9j_with_sign_minus_one_shows_its_own_value(clip_tab, site):
+    # odd row/column permutations bring (-1)^(sum of the nine j) (Edmonds 1957, eq. 6.4.6 — from memory)
+    _, plan, book = site
+    form = _signed_form("9j", "9j", book)
+    canon, sign = ninej_canonical(*form)
+    assert sign < 0 and canon != form
+    clip_tab.open("index.html")
+    _type(clip_tab.page, "9j", [_h(x) for x in form])
+    _landed(clip_tab.page, *_class_place("9j", canon))
+    _check_said(clip_tab, "9j", form)
+    assert clip_tab.problems == []
+
+
+def test_a_typed_w_with_sign_minus_one_shows_its_own_value(clip_tab, site):
+    # W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f} (Racah 1942; Edmonds 1957, eq. 6.2.13 — from memory)
+    a, b, c, d, e, f = 2, 1, 1, 2, 1, 1  # a+b+c+d = 3: W = -{1 1/2 1/2; 1 1/2 1/2}
+    from tablegen.kinds import kind
+
+    assert kind("w").doubled(a, b, c, d, e, f) == -kind("6j").doubled(a, b, e, d, c, f) != 0
+    clip_tab.open("index.html")
+    _type(clip_tab.page, "w", [_h(x) for x in (a, b, c, d, e, f)])
+    _landed(clip_tab.page, *_sixj_expected((a, b, e, d, c, f)))
+    _check_said(clip_tab, "w", (a, b, c, d, e, f))
+    assert clip_tab.problems == []
+
+
+def test_a_link_to_one_form_shows_that_form(clip_tab, site):
+    # a link naming a non-canonical 9j form lands on its class and shows the form's own value
+    _, plan, book = site
+    form = _signed_form("9j", "9j", book)
+    canon, _ = ninej_canonical(*form)
+    path, anchor = _class_place("9j", canon)
+    form_anchor = family("9j").layout.anchor(form, _ROWS)
+    clip_tab.page.goto((clip_tab.root / path).as_uri() + "#" + form_anchor)
+    _landed(clip_tab.page, path, anchor)
+    _check_said(clip_tab, "9j", form)
+    assert clip_tab.problems == []
+
+
+# -- layout at a laptop's and a phone's size, and in print (issue 8) --------------------------------
+@pytest.fixture(scope="module")
+def wide_site(tmp_path_factory):
+    """A build whose widest CG page is 4 ⊗ 4 (nine columns m1)."""
+    recipe = recipe_from_mapping({"cg": {"max_j": 4}})
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = BuildMeta("tablegen", "0.1.0", "cd" * 32, recipe.toml_text(), recipe.title, (("cg", 1),))
+    root = tmp_path_factory.mktemp("wide") / "site"
+    for path, data in render_html(plan, book, meta):
+        target = root / path
+        target.parent.mkdir(parents=True, exist_ok=True)
+        target.write_bytes(data)
+    return root
+
+
+def test_a_4x4_cg_page_fits_a_laptop_screen(browser, wide_site):
+    w = Watched(browser, wide_site)  # 1280 × 800
+    try:
+        w.open(_CG.page_path("cg", 8, 8))
+        page = w.page
+        # the page itself never scrolls sideways; the table scrolls inside its own box
+        assert page.evaluate("document.documentElement.scrollWidth") <= 1280
+        box = page.locator(".scroll").first
+        assert box.evaluate("b => b.scrollWidth > b.clientWidth")
+        # headers stay in view while the table's box scrolls down and across
+        head = page.locator(".grid thead th").nth(3)
+        row_head = page.locator(".grid tbody th").first
+        top0, left0 = box.bounding_box()["y"], box.bounding_box()["x"]
+        box.evaluate("b => { b.scrollTop = 200; b.scrollLeft = 300; }")
+        assert abs(head.bounding_box()["y"] - top0) < 2
+        assert abs(row_head.bounding_box()["x"] - left0) < 2
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+@pytest.mark.parametrize("path", PAGES)
+def test_the_header_takes_at_most_a_tenth_of_a_phone_screen(browser, site, path):
+    w = Watched(browser, site[0])
+    w.context.close()
+    w.context = browser.new_context(viewport={"width": 390, "height": 844}, is_mobile=True, has_touch=True)
+    w.page = w.context.new_page()
+    try:
+        w.open(path)
+        assert w.page.locator("header.top").bounding_box()["height"] <= 844 / 10
+        assert w.page.evaluate("document.documentElement.scrollWidth") <= 390
+        # the folded jump box opens from its button and still works
+        w.page.locator(".bar .find").click()
+        assert w.page.locator("#jump form").is_visible()
+    finally:
+        w.close()
+
+
+def test_print_hides_downloads_and_buttons(tab):
+    for path in ("index.html", "cg/j1-1-j2-0.5.html", "6j/j1-1.html"):
+        tab.open(path)
+        tab.page.emulate_media(media="print")
+        assert tab.page.locator("button").count() >= 1
+        assert all(not b.is_visible() for b in tab.page.locator("button").all())
+        assert all(not a.is_visible() for a in tab.page.locator(".dl a").all())
+        assert tab.page.locator("table").first.is_visible()  # the values themselves print
+        tab.page.emulate_media(media="screen")
+
+
+def test_the_jump_box_reaches_a_pair_split_into_pages(browser, tmp_path):
+    # 9 ⊗ 9 has a page per J (pages stay light); <9 1; 9 -1 | 5 0> is on the J = 5 page
+    recipe = recipe_from_mapping({"cg": {"min_j": "9", "max_j": "9"}})
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    meta = BuildMeta("tablegen", "0.1.0", "cd" * 32, recipe.toml_text(), recipe.title, (("cg", 1),))
+    for path, data in render_html(plan, book, meta):
+        (tmp_path / path).parent.mkdir(parents=True, exist_ok=True)
+        (tmp_path / path).write_bytes(data)
+    w = Watched(browser, tmp_path)
+    try:
+        w.open("index.html")
+        _type(w.page, "cg", ["9", "1", "9", "-1", "5", "0"])
+        _landed(w.page, _CG.page_path("cg", 18, 18, 10), _CG.anchor(10, 0, 2))
         assert w.problems == []
     finally:
         w.close()

@@ -38,7 +38,7 @@ def test_build_with_ranges_and_title(capsys, tmp_path: Path) -> None:
     assert recipe["cg"] == {"max_j": "1"}
     assert recipe["6j"] == {"max_j": "1", "min_j": "1/2"}
     assert "3j" not in recipe and "9j" not in recipe  # only the families asked for
-    assert (out / "cg" / "1x1.html").is_file() and (out / "data" / "cg-0.5x1.csv").is_file()
+    assert (out / "cg" / "j1-1-j2-1.html").is_file() and (out / "data" / "cg-j1-0.5-j2-1.csv").is_file()
     assert not (out / "3j").exists() and not (out / "9j").exists()
     assert list((out / "data").glob("6j-*.csv"))
     # the command verifies what it wrote
@@ -55,7 +55,7 @@ def test_none_leaves_a_family_out_of_a_recipe_file(capsys, tmp_path: Path) -> No
     manifest = _manifest(out)
     assert "cg" not in manifest["recipe"] and manifest["recipe"]["3j"] == {"max_j": "1/2"}
     assert not (out / "cg").exists() and not list((out / "data").glob("cg-*"))
-    assert (out / "data" / "3j-0.5x0.5.csv").is_file()
+    assert (out / "data" / "3j-j1-0.5-j2-0.5.csv").is_file()
 
 
 @pytest.mark.parametrize(

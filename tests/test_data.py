@@ -175,7 +175,7 @@ def test_csv_rows_match_engine_and_sympy(request, which: str) -> None:
 
 def test_a_few_values_by_hand(data: Data) -> None:
     # spot checks that do not depend on any library
-    rows = {tuple(r[:6]): r for r in _csv_rows(data, data.plan.table("cg-1x1"))[1:]}
+    rows = {tuple(r[:6]): r for r in _csv_rows(data, data.plan.table("cg-j1-1-j2-1"))[1:]}
     # <1 1; 1 -1 | 0 0> = 1/sqrt(3): |0 0> = (|1,-1> - |0,0> + |-1,1>)/sqrt(3) for two
     # spin-1 particles -- common practice, no source
     assert rows[("1", "1", "1", "-1", "0", "0")][6:9] == ["sqrt(1/3)", "1/3", "0.577350269189626"]
@@ -264,7 +264,7 @@ def test_values_txt_does_not_depend_on_digits_or_style(data: Data, data_rational
     # README: the digest "changes when a value changes, not when the look does"
     assert data.values_txt == data_rational_30.values_txt
     assert data.meta.data_digest == data_rational_30.meta.data_digest
-    assert data.files["data/cg-1x1.csv"] != data_rational_30.files["data/cg-1x1.csv"]  # digits differ
+    assert data.files["data/cg-j1-1-j2-1.csv"] != data_rational_30.files["data/cg-j1-1-j2-1.csv"]  # digits differ
 
 
 def test_digest_is_sha256_of_values_txt(data: Data) -> None:

@@ -292,7 +292,7 @@ def test_an_old_site_this_user_cannot_empty_is_refused_before_computing(open_tmp
 
 
 @needs_nobody
-@pytest.mark.parametrize("what", ["SHA256SUMS", "data/cg-1x1.csv", "manifest.json", "recipe.toml", "data", "."])
+@pytest.mark.parametrize("what", ["SHA256SUMS", "data/cg-j1-1-j2-1.csv", "manifest.json", "recipe.toml", "data", "."])
 def test_verify_of_an_unreadable_site_is_one_line(open_tmp: Path, capsys, what: str) -> None:
     out = open_tmp / "site"
     assert _cli(capsys, "build", "--out", str(out), *SMALL, "--quiet")[0] == 0

@@ -27,14 +27,14 @@ def test_a_built_site_has_no_broken_link(rendered):
     for path, data in files.items():
         check.add(path, data)
     assert check.finish() > 500
-    assert ("3j/1x1.html", "j3=1,m3=0,m1=0") in check.links  # it saw the cell-to-twin links, too
+    assert ("3j/j1-1-j2-1.html", "j3=1,m3=0,m1=0") in check.links  # it saw the cell-to-twin links, too
 
 
 @pytest.mark.parametrize(
     "href, rule",
     [
-        ("../3j/1x1.html#j3=9,m3=0,m1=0", "no such id"),  # a twin anchor the plan does not have
-        ("../3j/7x7.html", "no such file"),
+        ("../3j/j1-1-j2-1.html#j3=9,m3=0,m1=0", "no such id"),  # a twin anchor the plan does not have
+        ("../3j/j1-7-j2-7.html", "no such file"),
         ("#nowhere", "no such id"),
         ("../assets/missing.css", "no such file"),
     ],
@@ -43,12 +43,12 @@ def test_a_broken_link_is_named(rendered, href, rule):
     files, _ = rendered
     check = LinkCheck(plan_site(recipe_from_mapping(SMALL)))
     for path, data in files.items():
-        if path == "cg/1x1.html":
+        if path == "cg/j1-1-j2-1.html":
             data = data.replace(b"</main>", f'<a href="{href}">x</a></main>'.encode())
         check.add(path, data)
     with pytest.raises(LinkError, match=rule) as err:
         check.finish()
-    assert "cg/1x1.html" in str(err.value)
+    assert "cg/j1-1-j2-1.html" in str(err.value)
 
 
 def test_in_memory_site_equals_the_written_one(rendered, tmp_path: Path):

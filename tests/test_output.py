@@ -224,10 +224,10 @@ def test_replacing_a_built_site_with_another_recipe(tmp_path: Path) -> None:
 
     out = tmp_path / "site"
     build(recipe_from_mapping({"cg": {"max_j": 1}, "6j": {"max_j": 1}}), out, jobs=1)
-    assert (out / "data" / "cg-1x1.csv").is_file()
+    assert (out / "data" / "cg-j1-1-j2-1.csv").is_file()
     build(recipe_from_mapping({"3j": {"max_j": "1/2"}}), out, jobs=1)
     files = _snapshot(out)
-    assert "data/3j-0.5x0.5.csv" in files
+    assert "data/3j-j1-0.5-j2-0.5.csv" in files
     assert not any(p.startswith(("data/cg-", "data/6j-", "cg/", "6j/")) for p in files)
     assert json.loads(files[MANIFEST])["recipe"]["3j"] == {"max_j": "1/2"}
     assert _hidden_leftovers(tmp_path) == []

@@ -18,6 +18,7 @@ from tablegen.coefficients import cg2, ninej2, racah_w2, sixj2, threej2
 from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.values import Surd
+from tablegen.symmetry import sixj_members
 
 REPO = Path(__file__).resolve().parent.parent
 
@@ -213,19 +214,22 @@ def test_sixj_classes_partition_the_symbols_in_range(lo: int, hi: int) -> None:
     plan = plan_site(recipe_from_mapping({"6j": {"min_j": f"{lo}/2", "max_j": f"{hi}/2"}}))
     wanted = _sixj_in_range(lo, hi)
     owner: dict[tuple[int, ...], tuple[int, ...]] = {}
+    layout = plan.family("6j").layout
     for table in plan.tables_of("6j"):
         for e in table.entries:
-            assert e.members[0] == (e.key, 1)  # the key itself comes first
-            for member, sign in e.members:
+            forms = layout.filed_by(*e.key)  # the tetrahedral class, filed under its largest form
+            assert forms[0] == (e.key, 1) and len(forms) <= 24
+            for member, sign in forms:
                 assert member not in owner, f"{member} in two classes"
                 owner[member] = e.key
-                # value(member) = sign * value(key): Regge 1959 and the classical symmetries
+                # value(member) = sign * value(key): the classical symmetries (Edmonds 1957, eq. 6.2.4)
+                assert sixj2(*member) == sixj2(*e.key) * sign
+            for member, sign in sixj_members(*e.key):  # and the Regge partners (Regge 1959) share the value
                 assert sixj2(*member) == sixj2(*e.key) * sign
     missing = wanted - owner.keys()
     assert not missing, sorted(missing)[:5]
-    # every class is there because one of its symbols lies in the range
-    keys = {e.key for t in plan.tables_of("6j") for e in t.entries}
-    assert keys == {owner[s] for s in wanted}
+    # exactly the symbols in range are filed: a symbol is never filed under a partner beyond the range
+    assert set(owner) == wanted
 
 
 def test_sixj_values_agree_with_sympy(plan) -> None:
@@ -295,14 +299,48 @@ def test_ninej_values_agree_with_sympy(plan) -> None:
     assert checked >= 10
 
 
-def test_symbol_pages_group_classes_by_largest_j(plan) -> None:
-    # each 6j/9j page holds the classes whose canonical (first) argument is its largest j
+def test_symbol_pages_group_classes_by_their_leading_entries(plan) -> None:
+    # each 6j/9j page holds the classes whose canonical form starts with its first entry (the largest j
+    # of the symbol), in sections by the second entry, ascending: a printed symbol is two clicks away
     for family in ("6j", "9j"):
+        first, second = plan.family(family).kind_record.arguments[:2]
         for table in plan.tables_of(family):
-            top = dict(table.params)["jmax"]
+            lead = table.param(first)
             assert table.entries
-            for e in table.entries:
-                assert max(e.key) == top == e.key[0]
+            for section in table.sections:
+                assert section.anchor == f"{second}={_half(dict(section.params)[second])}"
+                for e in section.entries:
+                    assert max(e.key) == lead == e.key[0] and e.key[1] == dict(section.params)[second]
+            keys = [e.key for e in table.entries]
+            assert keys == sorted(keys)
+
+
+def test_a_familiar_6j_is_filed_under_its_own_numbers() -> None:
+    # {3 2 2; 0 2 2} (issue 8): its Regge partner {7/2 2 3/2; 1/2 2 3/2} has a larger first entry
+    plan = plan_site(recipe_from_mapping({"6j": {"max_j": "3"}}))
+    key = (6, 4, 4, 0, 4, 4)
+    (table,) = [t for t in plan.tables_of("6j") if any(e.key == key for e in t.entries)]
+    assert table.page == "6j/j1-3.html"
+    entry = next(e for e in table.entries if e.key == key)
+    assert entry.beyond > 0  # the partners with a j of 7/2 lie beyond the range and are counted apart
+    assert all(p.split("#")[0] in {t.page for t in plan.tables_of("6j")} for p in entry.partners)
+
+
+def test_large_classes_pages_are_split_in_parts() -> None:
+    # no page holds more than page_rows classes; parts follow each other and keep every class once
+    plan = plan_site(recipe_from_mapping({"9j": {"max_j": "2"}}))
+    layout = plan.family("9j").layout
+    small = type(layout)(class_size=layout.class_size, filed_by=layout.filed_by, page_rows=25)
+    from tablegen.families import FAMILIES, Family
+
+    fam = next(f for f in FAMILIES if f.key == "9j")
+    split = Family(fam.key, fam.kind, fam.title, fam.nav_label, small, fam.convention)
+    plan2 = plan_site(recipe_from_mapping({"9j": {"max_j": "2"}}), families=(split,))
+    keys = [e.key for t in plan.tables_of("9j") for e in t.entries]
+    assert [e.key for t in plan2.tables_of("9j") for e in t.entries] == keys
+    assert len(plan2.tables_of("9j")) > len(plan.tables_of("9j"))
+    assert all(len(t.entries) <= 25 for t in plan2.tables_of("9j"))
+    assert any(t.page.endswith("-part2.html") for t in plan2.tables_of("9j"))
 
 
 # -- determinism ----------------------------------------------------------------------------
@@ -310,3 +348,25 @@ def test_plan_is_deterministic(plan) -> None:
     again = plan_site(recipe_from_mapping(SMALL))
     assert again == plan
     assert repr(again) == repr(plan)
+
+
+def test_a_pair_too_large_for_one_page_gets_a_page_per_third_j() -> None:
+    # pages stay light (issue 8): 9 ⊗ 9 holds more values than one page may show
+    plan = plan_site(recipe_from_mapping({"cg": {"min_j": "9", "max_j": "9"}, "3j": {"min_j": "9", "max_j": "9"}}))
+    layout = plan.family("cg").layout
+    assert layout.split(18, 18)
+    tables = plan.tables_of("cg")
+    assert len(tables) == 19  # J = 18, 17, ..., 0
+    for t in tables:
+        (section,) = t.sections
+        tk = section.params[0][1]
+        assert t.page == f"cg/j1-9-j2-9-J-{tk // 2}.html" == layout.page_path("cg", 18, 18, tk)
+        assert len(t.entries) <= layout.page_cells
+        for e in t.entries:  # the twin link names the 3j's page of the same third j
+            page, anchor = e.twin.split("#")
+            assert page == f"3j/j1-9-j2-9-j3-{tk // 2}.html"
+    # every value of the pair once, and the parts chained and linked to each other
+    assert sum(len(t.entries) for t in tables) == sum((36 - max(0, abs(a + b))) // 2 + 1
+                                                      for a in range(-18, 19, 2) for b in range(-18, 19, 2))
+    pages = [p for p in plan.pages if p.kind == "cg"]
+    assert all(len([r for r in p.related if r.path.startswith("cg/j1-9-j2-9-J-")]) == 18 for p in pages)

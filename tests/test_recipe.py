@@ -124,8 +124,8 @@ def test_default_plan_covers_the_promised_symbols() -> None:
         for tj2 in range(0, 9):
             code1 = str(tj1 // 2) if tj1 % 2 == 0 else f"{tj1 // 2}.5"
             code2 = str(tj2 // 2) if tj2 % 2 == 0 else f"{tj2 // 2}.5"
-            assert f"cg/{code1}x{code2}.html" in pages
-            assert f"3j/{code1}x{code2}.html" in pages
+            assert f"cg/j1-{code1}-j2-{code2}.html" in pages
+            assert f"3j/j1-{code1}-j2-{code2}.html" in pages
     # every 6j with all j <= 4 (triangle rule on the four triads, Edmonds 1957, §6.2)
     # belongs to a class tabulated by the default build
     six_members = {m for t in plan.tables_of("6j") for e in t.entries for m, _ in e.members}

@@ -21,7 +21,7 @@ from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.render.data import render_data
 from tablegen.render.html import asset_paths, relative_url, render_html
-from tablegen.symmetry import ninej_canonical, sixj_canonical
+from tablegen.symmetry import sixj_tetrahedral_members, ninej_canonical, sixj_canonical
 
 HOSTILE_TITLE = "Tables <script>alert('t')</script> & more"
 HOSTILE_NOTES = 'Line one <img src=x onerror="alert(1)"> & \'quoted\'\nline two </p><script>bad()</script>'
@@ -212,7 +212,7 @@ def test_cg_and_3j_cells_link_to_their_twins(built, parsed):
 
 
 def test_cg_rows_are_written_as_ket_expansions(built, parsed):
-    # the expansion |J M> = sum <j1 m1; j2 m2|J M> |j1 m1>|j2 m2> (Edmonds 1957, eq. 3.5.1 — from memory)
+    # the expansion |(j1 j2) J M> = sum <j1 m1; j2 m2|J M> |j1 m1>|j2 m2> (Edmonds 1957, eq. 3.5.1 — from memory)
     _, plan, book, _, files = built
     for table in plan.tables_of("cg"):
         page = parsed[table.page]
@@ -226,7 +226,8 @@ def test_cg_rows_are_written_as_ket_expansions(built, parsed):
                 item = text[text.index(f'<li id="{anchor}">') :]
                 item = item[: item.index("</li>")]
                 assert item.count("<math>") == page.math_in[anchor]
-                assert f"<mtext>|{_m(tJ)}, {_m(tM)}⟩</mtext><mo>=</mo>" in item
+                # the coupled state shows its coupling; product states are |j m>|j m> (issue 8)
+                assert f"<mtext>|({j1}, {j2}) {_m(tJ)}, {_m(tM)}⟩</mtext><mo>=</mo>" in item
                 terms = [e for e in section.grid[r] if e is not None and book[("cg", e.key)].value]
                 assert page.math_in[anchor] == len(terms) + 1
                 for e in terms:
@@ -244,38 +245,65 @@ def _h(t: int) -> str:
     return str(t // 2) if t % 2 == 0 else f"{t}/2"
 
 
+def _braced(member) -> str:
+    return "{" + "; ".join(" ".join(_h(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
+
+
 def test_symbol_pages_list_every_form_and_the_racah_w(built):
-    _, plan, book, _, files = built
+    # a row lists its ordinary forms (6j: 24 tetrahedral forms, Edmonds 1957, eq. 6.2.4; 9j: row/column
+    # permutations and the transpose, eq. 6.4.6 — from memory); Regge partners are linked, never listed as forms
+    recipe, plan, book, _, files = built
     for table in plan.tables:
         if table.family not in ("6j", "9j"):
             continue
+        fam = plan.family(table.family)
+        f = recipe.family(table.family)
         text = files[table.page].decode("utf-8")
         for entry in table.entries:
             row = text[text.index(f'<tr id="{entry.anchor}"') :]
             row = row[: row.index("</tr>")]
-            for member, sign in entry.members:
-                shown_form = "{" + "; ".join(" ".join(_h(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
-                assert f"<li>{shown_form}" in row, (entry.anchor, shown_form)
-            if any(s < 0 for _, s in entry.members):
+            forms = fam.layout.filed_by(*entry.key)
+            assert forms[0] == (entry.key, 1)  # filed under its largest form
+            for member, sign in forms:
+                assert f"<li>{_braced(member)}" in row, (entry.anchor, member)
+            if any(s < 0 for _, s in forms):
                 assert "Equal to minus the value" in row
+            # every other form of the same value is a form of a linked partner or lies beyond the range
+            ordinary = {m for m, _ in forms}
+            every = fam.kind_record.members(*entry.key)  # every symmetry, Regge's included
+            assert entry.members == tuple(forms)  # the data files list the class as filed
+            beyond = [m for m, _ in every if any(not f.min_tj <= x <= f.max_tj for x in m)]
+            assert entry.beyond == (len(beyond) if entry.partners or beyond else 0)
+            for m, _ in every:
+                if m in ordinary or m in beyond:
+                    continue
+                canon = fam.layout.filed_by(*m)[0][0]
+                assert any(p.endswith("#" + fam.layout.anchor(canon, fam.kind_record.notation.groups)) for p in entry.partners)
+            for target in entry.partners:
+                assert f'href="{relative_url(table.page, target)}"' in row
             for c in plan.family(table.family).companions:
                 w_args, w_sign = c.mapping(entry.key)
                 assert f'data-t="{book[(c.kind, w_args)].tex}"' in row
                 assert ("= −1 × the 6j" in row) == (w_sign < 0)
 
 
-def test_every_page_carries_the_jump_data_from_the_records(built):
+def test_every_page_loads_the_jump_data_from_the_records(built):
     recipe, plan, _, _, files = built
-    blocks = set()
     for page in plan.pages:
         text = files[page.path].decode("utf-8")
-        m = re.search(r'<script type="application/json" id="tablegen-data">(.*?)</script>', text)
-        assert m, f"{page.path} lacks the jump data"
-        blocks.add(m.group(1))
-    assert len(blocks) == 1  # the same facts on every page
-    facts = json.loads(blocks.pop())
+        data = relative_url(page.path, "assets/data.js")
+        script = relative_url(page.path, "assets/site.js")
+        assert f'<script src="{data}" defer></script>' in text, f"{page.path} does not load the jump data"
+        assert text.index(data) < text.index(script)  # deferred scripts run in document order
+        assert "tablegen-data" not in text  # no copy of the data in the page itself
+    m = re.fullmatch(r"window\.tablegenData = (.*);\n", files["assets/data.js"].decode("utf-8"), re.S)
+    assert m
+    facts = json.loads(m.group(1))
     assert {k: v["range"] for k, v in facts["families"].items()} == {f.family: [f.min_tj, f.max_tj] for f in recipe.families}
-    assert facts["families"]["6j"]["pages"] == list(dict(plan.family_pages)["6j"])
+    # classes: each page with the first (smallest) canonical form on it, in plan order
+    assert [p for p, _ in facts["families"]["6j"]["pages"]] == list(dict(plan.family_pages)["6j"])
+    for (path, first), table in zip(facts["families"]["6j"]["pages"], plan.tables_of("6j")):
+        assert table.page == path and tuple(first) == min(e.key for e in table.entries)
     assert [k["key"] for k in facts["kinds"]] == ["cg", "3j", "6j", "w", "9j"]
     # the patterns the script fills in give the plan's own names
     cg = facts["families"]["cg"]
@@ -295,7 +323,9 @@ def test_canonical_forms_reachable_by_name(built):
     rows = ((0, 1, 2), (3, 4, 5), (6, 7, 8))
     for table in plan.tables_of("6j"):
         for entry in table.entries:
-            assert entry.anchor == ClassesLayout.anchor(sixj_canonical(*entry.key)[0], rows[:2])
+            # filed under its largest tetrahedral form (Edmonds 1957, eq. 6.2.4 — from memory)
+            assert entry.anchor == ClassesLayout.anchor(sixj_tetrahedral_members(*entry.key)[0][0], rows[:2])
+            assert sixj_canonical(*entry.key)[0] >= entry.key  # a Regge partner may be larger: never filed under it
     for table in plan.tables_of("9j"):
         for entry in table.entries:
             assert entry.anchor == ClassesLayout.anchor(ninej_canonical(*entry.key)[0], rows)
@@ -384,3 +414,57 @@ def test_other_recipes_render_with_working_links(mapping):
             assert parsed[table.page].tex.get(entry.anchor, shown.tex) == shown.tex
             if shown.value:
                 assert shown.decimal in files[table.page].decode("utf-8")
+
+
+def test_every_zero_shown_names_the_rule_that_makes_it_zero(built):
+    # selection rules: triangle, projection sum, parity of (j1 j2 j3; 0 0 0) (Edmonds 1957, ch. 3 — from memory)
+    from tablegen.kinds import kind
+
+    _, plan, book, _, files = built
+    seen = 0
+    for table in plan.tables:
+        text = files[table.page].decode("utf-8")
+        for entry in table.entries:
+            if book[(table.kind, entry.key)].value != 0:
+                continue
+            rule = kind(table.kind).zero_rule(entry.key)
+            assert rule is not None, (table.kind, entry.key)
+            at = text.index(f'id="{entry.anchor}"')
+            place = text[at : text.index("</t", at + 1) if table.kind in ("cg", "3j") else text.index("</tr>", at)]
+            assert f"zero by {rule}" in place, (table.page, entry.anchor)
+            seen += 1
+    assert seen > 0  # the test build has zeros (parity in CG/3j grids, cancellations in 6j/9j)
+
+
+def test_the_index_reaches_every_6j_and_9j_section_and_counts_truthfully(built):
+    # two clicks from the index to a symbol: its first entry's section link, then the row (issue 8);
+    # the forms counted are exactly the symbols with every j in range (enumerated here independently)
+    from tablegen.kinds import kind
+    from tablegen.layouts import symbols_in_range
+
+    recipe, plan, _, _, files = built
+    index = files["index.html"].decode("utf-8")
+    for key in ("6j", "9j"):
+        f = recipe.family(key)
+        for table in plan.tables_of(key):
+            for section in table.sections:
+                assert f'href="{table.page}#{section.anchor}"' in index, (table.page, section.anchor)
+        part = index[index.index(f'<section id="{key}"') :]
+        part = part[: part.index("</section>")]
+        counted = sum(int(n) for n in re.findall(r"(\d+) forms? in range", part))
+        assert counted == sum(1 for _ in symbols_in_range(kind(key), f.min_tj, f.max_tj))
+
+
+def test_a_full_classes_or_grid_page_stays_under_two_megabytes(built):
+    # pages stay light (issue 8): a page holds at most page_rows classes (page_cells grid values), so the
+    # heaviest row or cell seen here, times that many, must stay under 2 MB
+    _, plan, _, _, files = built
+    for fam in plan.families:
+        limit = getattr(fam.layout, "page_rows", None) or getattr(fam.layout, "page_cells", None)
+        if limit is None:
+            continue
+        sizes = sorted((len(t.entries), len(files[t.page])) for t in plan.tables_of(fam.key))
+        (n0, b0), (n1, b1) = sizes[0], sizes[-1]
+        assert n1 > n0
+        per_value = (b1 - b0) / (n1 - n0)  # a page's fixed part (header, prose) apart
+        assert b0 + per_value * (limit - n0) < 2_000_000, (fam.key, per_value)

@@ -376,7 +376,7 @@ def test_booklet_prints_title_literally_and_values(small, compiled):
 
 
 def test_sheet_prints_its_table(compiled):
-    text = _pdf_text(compiled["cg-1x0.5-sheet.tex"])
+    text = _pdf_text(compiled["cg-j1-1-j2-0.5-sheet.tex"])
     assert "Clebsch–Gordan coefficients, j1 = 1, j2 = 1/2" in text.replace("\n", " ")
     assert "0.816496580927726" in text  # sqrt(2/3), closed form for j2 = 1/2 (Edmonds 1957, ch. 3)
 

@@ -80,11 +80,11 @@ def test_fresh_build_verifies(capsys, built: Path) -> None:
 # {1 1 1; 1 1 1} = 1/6 (Edmonds 1957, Table 5, closed forms with one j = 1; from memory)
 CHANGES = [
     # (file, old text, new text, words every matching problem must carry)
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),", "1,1,1,-1,0,0,sqrt(1/5),", ["<1 1; 1 -1 | 0 0>", "exact"]),
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626",
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),", "1,1,1,-1,0,0,sqrt(1/5),", ["<1 1; 1 -1 | 0 0>", "exact"]),
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626",
      "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,", "1,1,1,-1,0,0,sqrt(1/3),1/2,", ["<1 1; 1 -1 | 0 0>", "square"]),
-    ("data/6j-jmax-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6"',
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,", "1,1,1,-1,0,0,sqrt(1/3),1/2,", ["<1 1; 1 -1 | 0 0>", "square"]),
+    ("data/6j-j1-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6"',
      '"args":["1","1","1","1","1","1"],"exact":"1/7"', ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\n6j 1 1 1 1 1 1 1/6\n", "\n6j 1 1 1 1 1 1 1/9\n", ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\ncg 1 1 1 -1 0 0 sqrt(1/3)\n", "\ncg 1 1 1 -1 0 0 -sqrt(1/3)\n", ["<1 1; 1 -1 | 0 0>"]),
@@ -112,10 +112,10 @@ def test_changed_value_is_reported(capsys, site: Path, rel, old, new, words, res
 
 # -- missing, extra and checksum problems ----------------------------------------------------------
 def test_missing_file_is_reported(capsys, site: Path) -> None:
-    (site / "data" / "cg-1x1.csv").unlink()
+    (site / "data" / "cg-j1-1-j2-1.csv").unlink()
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert "  missing file: data/cg-1x1.csv" in out
+    assert "  missing file: data/cg-j1-1-j2-1.csv" in out
 
 
 def test_missing_values_txt_is_reported(capsys, site: Path) -> None:
@@ -147,12 +147,12 @@ def test_corrupted_sums_line_is_reported(capsys, site: Path) -> None:
 def test_changed_digest_in_sums_is_reported(capsys, site: Path) -> None:
     sums = site / SUMS
     text = sums.read_text(encoding="utf-8")
-    line = next(l for l in text.splitlines() if l.endswith("  data/cg-1x1.csv"))
+    line = next(l for l in text.splitlines() if l.endswith("  data/cg-j1-1-j2-1.csv"))
     flipped = ("0" if line[0] != "0" else "1") + line[1:]
     sums.write_text(text.replace(line, flipped), encoding="utf-8")
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert "  checksum mismatch: data/cg-1x1.csv" in out
+    assert "  checksum mismatch: data/cg-j1-1-j2-1.csv" in out
 
 
 
@@ -161,9 +161,9 @@ def test_changed_digest_in_sums_is_reported(capsys, site: Path) -> None:
     "rel",
     [
         SUMS,
-        "data/cg-1x1.csv",
+        "data/cg-j1-1-j2-1.csv",
         "values.txt",
-        "data/cg-1x1.json",
+        "data/cg-j1-1-j2-1.json",
     ],
 )
 def test_bytes_that_are_not_utf8_are_reported(capsys, site: Path, rel: str) -> None:
@@ -209,15 +209,15 @@ def test_a_deleted_table_row_is_noticed_even_when_resealed(capsys, site: Path) -
     # The digest is the SHA-256 of values.txt, so every value a table holds must be listed there
     # and the other way round (common practice, no source). <1 1; 1 -1 | 0 0> = 1/sqrt(3) is the
     # J = 0 state of two spin-1 particles (Condon & Shortley 1935, from memory).
-    csv_path = site / "data" / "cg-1x1.csv"
+    csv_path = site / "data" / "cg-j1-1-j2-1.csv"
     lines = csv_path.read_text(encoding="utf-8").splitlines(keepends=True)
     row = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
     assert row in lines
     csv_path.write_text("".join(line for line in lines if line != row), encoding="utf-8")
-    _reseal(site, "data/cg-1x1.csv")
+    _reseal(site, "data/cg-j1-1-j2-1.csv")
     status, out, _ = _run(capsys, site)
     assert status == 1
-    assert any("data/cg-1x1.csv line 18, value <1 1; 1 -1 | 0 0>" in line and "(19 lines" in line for line in out), out
+    assert any("data/cg-j1-1-j2-1.csv line 18, value <1 1; 1 -1 | 0 0>" in line and "(19 lines" in line for line in out), out
 
 
 # -- forgeries: the forger recomputes every line of SHA256SUMS ---------------------------------------
@@ -249,16 +249,16 @@ def _edit_manifest(site: Path, change) -> None:
     (site / "manifest.json").write_text(json.dumps(doc, indent=1, ensure_ascii=False) + "\n", encoding="utf-8")
 
 
-# {1 1 1; 1 1/2 1/2} = 1/6 and its W (Edmonds 1957, Table 5; from memory) sit in 6j-jmax-1;
-# <1 1; 1 -1 | 0 0> = 1/sqrt(3) (common practice, no source) in cg-1x1.
+# {1 1 1; 1 1/2 1/2} = 1/6 and its W (Edmonds 1957, Table 5; from memory) sit in 6j-j1-1;
+# <1 1; 1 -1 | 0 0> = 1/sqrt(3) (common practice, no source) in cg-j1-1-j2-1.
 _ROW_6J = "1,1/2,1/2,1,1/2,1/2,1/6,1/36,0.166666666666667,3,1 1/2 1/2 1 1/2 1/2,-1\n"
 _ROW_CG = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
 
 
 def _delete_row_everywhere(site: Path) -> None:
     """The cg row removed from CSV, JSON and values.txt; every digest and checksum updated to match."""
-    _set_lines(site, "data/cg-1x1.csv", [l for l in _lines(site, "data/cg-1x1.csv") if l != _ROW_CG])
-    _set_lines(site, "data/cg-1x1.json", [l for l in _lines(site, "data/cg-1x1.json")
+    _set_lines(site, "data/cg-j1-1-j2-1.csv", [l for l in _lines(site, "data/cg-j1-1-j2-1.csv") if l != _ROW_CG])
+    _set_lines(site, "data/cg-j1-1-j2-1.json", [l for l in _lines(site, "data/cg-j1-1-j2-1.json")
                                             if '"args":["1","1","1","-1","0","0"]' not in l])
     _set_lines(site, "values.txt", [l for l in _lines(site, "values.txt") if l != "cg 1 1 1 -1 0 0 sqrt(1/3)\n"])
     old = json.loads((site / "manifest.json").read_text(encoding="utf-8"))["data_digest"]
@@ -277,24 +277,24 @@ def _other_hex(m: re.Match) -> str:
 
 FORGERIES = {
     # name: (forge(site), the file a problem line must name)
-    "html-value": (lambda s: _sub_first(s, "6j/jmax-1.html", r"0\.166666666666667", "0.166666666666668"), "6j/jmax-1.html"),
-    "latex-fragment-value": (lambda s: _sub_first(s, "latex/6j-jmax-1.tex", r"\\frac\{1\}\{6\}", r"\\frac{1}{7}"), "latex/6j-jmax-1.tex"),
-    "latex-sheet-title": (lambda s: _sub_first(s, "latex/6j-jmax-1-sheet.tex", r"largest \$j = 1\$", "largest $j = 2$"), "latex/6j-jmax-1-sheet.tex"),
+    "html-value": (lambda s: _sub_first(s, "6j/j1-1.html", r"0\.166666666666667", "0.166666666666668"), "6j/j1-1.html"),
+    "latex-fragment-value": (lambda s: _sub_first(s, "latex/6j-j1-1.tex", r"\\frac\{1\}\{6\}", r"\\frac{1}{7}"), "latex/6j-j1-1.tex"),
+    "latex-sheet-title": (lambda s: _sub_first(s, "latex/6j-j1-1-sheet.tex", r"j1 = 1\}", "j1 = 2}"), "latex/6j-j1-1-sheet.tex"),
     "cite-bib-count": (lambda s: _sub_first(s, "cite.bib", r"cg: 56 values", "cg: 57 values"), "cite.bib"),
     "cite-bib-digest": (lambda s: _sub_first(s, "cite.bib", r"(SHA-256 of values.txt\): )([0-9a-f])", _other_hex), "cite.bib"),
     "page-footer-digest": (lambda s: _sub_first(s, "index.html", r'(values.txt">)([0-9a-f])', _other_hex), "index.html"),
-    "csv-w-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.csv", re.escape(_ROW_6J), _ROW_6J.replace(",-1\n", ",1\n")), "data/6j-jmax-1.csv"),
-    "json-w-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.json", r'"sign":-1', '"sign":1'), "data/6j-jmax-1.json"),
-    "json-form-sign": (lambda s: _sub_first(s, "data/6j-jmax-1.json", r'(\["[^"]+",)1\]', r"\1-1]"), "data/6j-jmax-1.json"),
-    "row-deleted-everywhere": (_delete_row_everywhere, "data/cg-1x1.csv"),
+    "csv-w-sign": (lambda s: _sub_first(s, "data/6j-j1-1.csv", re.escape(_ROW_6J), _ROW_6J.replace(",-1\n", ",1\n")), "data/6j-j1-1.csv"),
+    "json-w-sign": (lambda s: _sub_first(s, "data/6j-j1-1.json", r'"sign":-1', '"sign":1'), "data/6j-j1-1.json"),
+    "json-form-sign": (lambda s: _sub_first(s, "data/6j-j1-1.json", r'(\["[^"]+",)1\]', r"\1-1]"), "data/6j-j1-1.json"),
+    "row-deleted-everywhere": (_delete_row_everywhere, "data/cg-j1-1-j2-1.csv"),
     "csv-row-removed-not-json": (
-        lambda s: _set_lines(s, "data/cg-1x1.csv", [l for l in _lines(s, "data/cg-1x1.csv") if l != _ROW_CG]),
-        "data/cg-1x1.csv"),
+        lambda s: _set_lines(s, "data/cg-j1-1-j2-1.csv", [l for l in _lines(s, "data/cg-j1-1-j2-1.csv") if l != _ROW_CG]),
+        "data/cg-j1-1-j2-1.csv"),
     "row-duplicated": (
-        lambda s: _set_lines(s, "data/cg-1x1.csv", _lines(s, "data/cg-1x1.csv") + [_ROW_CG]), "data/cg-1x1.csv"),
+        lambda s: _set_lines(s, "data/cg-j1-1-j2-1.csv", _lines(s, "data/cg-j1-1-j2-1.csv") + [_ROW_CG]), "data/cg-j1-1-j2-1.csv"),
     "rows-reordered": (
-        lambda s: _set_lines(s, "data/cg-1x1.csv", _lines(s, "data/cg-1x1.csv")[:1] + _lines(s, "data/cg-1x1.csv")[1:][::-1]),
-        "data/cg-1x1.csv"),
+        lambda s: _set_lines(s, "data/cg-j1-1-j2-1.csv", _lines(s, "data/cg-j1-1-j2-1.csv")[:1] + _lines(s, "data/cg-j1-1-j2-1.csv")[1:][::-1]),
+        "data/cg-j1-1-j2-1.csv"),
     "manifest-counts": (lambda s: _edit_manifest(s, lambda d: d["counts"].update(cg=57)), "manifest.json"),
     "manifest-recipe": (lambda s: _edit_manifest(s, lambda d: d["recipe"]["cg"].update(max_j="1/2")), "manifest.json"),
     "manifest-version": (lambda s: _edit_manifest(s, lambda d: d.update(version="0.0.9")), "manifest.json"),
@@ -330,7 +330,7 @@ def test_a_difference_names_the_value_and_the_field(capsys, site: Path) -> None:
     FORGERIES["csv-w-sign"][0](site)
     _forge_sums(site)
     _, out, _ = _run(capsys, site)
-    line = next(l for l in out if "data/6j-jmax-1.csv" in l)
+    line = next(l for l in out if "data/6j-j1-1.csv" in l)
     assert "value {1 1/2 1/2; 1 1/2 1/2}" in line and ", w_sign:" in line, line
 
 
@@ -375,18 +375,18 @@ def test_value_by_value_catches_data_forgeries(capsys, site: Path, other_version
 @pytest.mark.parametrize("body", ['"rows": 5', '"rows": [{"args": null, "exact": "1", "square": "1", "decimal": "1"}]',
                                   '"rows": [5]', '"rows": [{"args": [1], "exact": 1, "square": 1, "decimal": 1, "forms": 3, "w": 1}]'])
 def test_malformed_json_tables_are_problems_not_tracebacks(capsys, site: Path, other_version, body: str) -> None:
-    path = site / "data" / "cg-1x1.json"
+    path = site / "data" / "cg-j1-1-j2-1.json"
     doc = path.read_text(encoding="utf-8")
     start = doc.index('"rows": [')
     path.write_text(doc[:start] + body + "\n}\n", encoding="utf-8")
     _forge_sums(site)
     status, out, err = _run(capsys, site)
     assert status == 1 and "Traceback" not in err, (out, err)
-    assert any(line.strip().startswith("data/cg-1x1.json") for line in out[1:]), out
+    assert any(line.strip().startswith("data/cg-j1-1-j2-1.json") for line in out[1:]), out
 
 
 def test_a_huge_forged_value_gives_a_short_line(capsys, site: Path, other_version) -> None:
-    _sub_first(site, "data/cg-1x1.csv", re.escape("1,1,1,-1,0,0,sqrt(1/3),"), "1,1,1,-1,0,0," + "7" * 5000 + ",")
+    _sub_first(site, "data/cg-j1-1-j2-1.csv", re.escape("1,1,1,-1,0,0,sqrt(1/3),"), "1,1,1,-1,0,0," + "7" * 5000 + ",")
     _forge_sums(site)
     status, out, _ = _run(capsys, site)
     assert status == 1 and any("<1 1; 1 -1 | 0 0>: exact" in line for line in out), out
@@ -395,23 +395,23 @@ def test_a_huge_forged_value_gives_a_short_line(capsys, site: Path, other_versio
 
 @pytest.mark.parametrize("body", ['"rows": 5', '"rows": [{"args": null}]'])
 def test_malformed_json_tables_in_a_same_version_site_are_differences(capsys, site: Path, body: str) -> None:
-    path = site / "data" / "6j-jmax-1.json"
+    path = site / "data" / "6j-j1-1.json"
     doc = path.read_text(encoding="utf-8")
     path.write_text(doc[: doc.index('"rows": [')] + body + "\n}\n", encoding="utf-8")
     _forge_sums(site)
     status, out, err = _run(capsys, site)
     assert status == 1 and err == "", (out, err)
-    assert any(line.startswith("  data/6j-jmax-1.json line ") for line in out), out
+    assert any(line.startswith("  data/6j-j1-1.json line ") for line in out), out
 
 
 def test_a_listed_file_replaced_by_a_symlink_is_reported(capsys, site: Path, tmp_path: Path) -> None:
     # the same bytes, but kept outside the site, where they can change unseen
     outside = tmp_path / "elsewhere.csv"
-    outside.write_bytes((site / "data" / "cg-1x1.csv").read_bytes())
-    (site / "data" / "cg-1x1.csv").unlink()
-    (site / "data" / "cg-1x1.csv").symlink_to(outside)
+    outside.write_bytes((site / "data" / "cg-j1-1-j2-1.csv").read_bytes())
+    (site / "data" / "cg-j1-1-j2-1.csv").unlink()
+    (site / "data" / "cg-j1-1-j2-1.csv").symlink_to(outside)
     status, out, _ = _run(capsys, site)
-    assert status == 1 and "  data/cg-1x1.csv: a symbolic link, not a file of the site" in out, out
+    assert status == 1 and "  data/cg-j1-1-j2-1.csv: a symbolic link, not a file of the site" in out, out
 
 
 def test_a_forged_recipe_far_larger_than_the_site_is_not_rebuilt(capsys, site: Path) -> None:

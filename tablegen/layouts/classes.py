@@ -1,13 +1,22 @@
-"""The classes layout: symmetry classes of a symbol, one page per largest j of the canonical form.
+"""The classes layout: symbols filed as a printed table files them, by their own leading arguments.
 
 Every symbol with all its j in the range and every triad of its kind allowed
-is enumerated (in lexicographic order), grouped into classes by its kind's
-``members`` (canonical = largest form first), and each class becomes one Entry.
+is enumerated, and grouped into classes by the layout's ``filed_by`` function:
+the ordinary symmetries of the symbol (tetrahedral for a 6j; row and column
+permutations and the transpose for a 9j), not the Regge symmetries, so that
+a symbol as printed in a paper is found under its own numbers.  The class's
+canonical form is its largest form; a page holds the classes with one first
+entry, in sections by the second entry (the classical order: largest j first).
+A page with more than ``page_rows`` classes is split into numbered parts.
+
+Regge partners (the other ordinary classes with the same value, from the
+kind's ``members``) are linked when they lie in the range and counted apart
+when they do not; a symbol is never filed under a partner.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Callable, Iterator
 
 from ..sitemodel import Entry, Link, Page, Section, Table, chain, file_code, half, table_files
@@ -48,51 +57,110 @@ def symbols_in_range(k: "Kind", min_tj: int, max_tj: int) -> Iterator[tuple[int,
 
 @dataclass(frozen=True, slots=True)
 class ClassesLayout:
-    """Symmetry classes, one page per largest j; class_size is the size of a generic class."""
+    """Classes under the ordinary symmetries, a page per first entry, sections by the second."""
 
-    class_size: int  # forms a generic class holds (144 for 6j, 72 for 9j)
-    count_noun: str = "symmetry classes (one value each)"
+    class_size: int  # forms a generic class holds as filed (24 for a 6j, 72 for a 9j): bounds the class count
+    filed_by: Callable[..., list] = field(repr=False)  # the ordinary symmetries: t -> [(form, sign)], largest first
+    has_partners: bool = False  # the kind has symmetries beyond filed_by (Regge): pages show a partners column
+    page_rows: int = 400  # classes on one page at most (about 1 kB each: pages stay well under 2 MB)
+    count_noun: str = "symmetry classes"
 
     name = "classes"
-    params = ("jmax",)
-    param_words = {"jmax": "largest j"}  # how a table parameter is read out
+    param_words: dict = field(default_factory=dict, repr=False)  # table parameters read as their own names
 
-    def page_path(self, key: str, top: int) -> str:
-        return f"{key}/jmax-{file_code(top)}.html"
+    @staticmethod
+    def _lead(k: "Kind") -> tuple[str, str]:
+        return k.arguments[0], k.arguments[1]
 
-    def page_pattern(self, key: str) -> str:
-        """The page path with {top}, the first entry of the canonical form (the jump box fills it in)."""
-        return f"{key}/jmax-{{top}}.html"
+    def page_path(self, key: str, lead_name: str, lead: int, part: int = 1) -> str:
+        """'6j/j1-3.html', then '6j/j1-3-part2.html' for a page split in parts."""
+        tail = "" if part == 1 else f"-part{part}"
+        return f"{key}/{lead_name}-{file_code(lead)}{tail}.html"
 
     @staticmethod
     def anchor(key: tuple[int, ...], groups: tuple[tuple[int, ...], ...]) -> str:
         """'1,1,1;1,1,1' for a 6j, '1,1,0;1,1,1;0,1,1' for a 9j: the kind's rows, joined."""
         return ";".join(",".join(half(key[i]) for i in g) for g in groups)
 
+    def classes_in_range(self, k: "Kind", min_tj: int, max_tj: int) -> list[tuple[int, ...]]:
+        """Canonical forms of the ordinary classes of every symbol in range, ascending."""
+        seen: set[tuple[int, ...]] = set()
+        out = []
+        for s in symbols_in_range(k, min_tj, max_tj):
+            if s in seen:
+                continue
+            forms = self.filed_by(*s)
+            seen.update(m for m, _ in forms)
+            out.append(forms[0][0])
+        out.sort()
+        return out
+
+    def partners(self, k: "Kind", canon: tuple[int, ...]) -> tuple[list[tuple[int, ...]], list]:
+        """(canonical forms of the other ordinary classes of the same value, every form of that value)."""
+        full = k.members(*canon)
+        out, done = [], set()
+        for m, _ in full:
+            if m in done:
+                continue
+            forms = self.filed_by(*m)
+            done.update(f for f, _ in forms)
+            if forms[0][0] != canon:
+                out.append(forms[0][0])
+        return sorted(out), full
+
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
         k = fam.kind_record
         groups = k.notation.groups
-        seen: set[tuple[int, ...]] = set()
-        classes = []
-        for s in symbols_in_range(k, f.min_tj, f.max_tj):
-            if s in seen:
-                continue
-            members = k.members(*s)  # sorted descending: members[0] is the canonical form
-            seen.update(m for m, _ in members)
-            classes.append((members[0][0], len(members)))
-        classes.sort()
-        by_top: dict[int, list] = {}
-        for canon, forms in classes:
-            by_top.setdefault(canon[0], []).append((canon, forms))
+        first, second = self._lead(k)
+        canons = self.classes_in_range(k, f.min_tj, f.max_tj)
+        # pages: one per first entry, split into parts of at most page_rows classes
+        parts: list[tuple[int, int, list[list[tuple[int, ...]]]]] = []  # (lead, part, sections)
+        by_lead: dict[int, dict[int, list[tuple[int, ...]]]] = {}
+        for c in canons:
+            by_lead.setdefault(c[0], {}).setdefault(c[1], []).append(c)
+        for lead, sections in by_lead.items():
+            current: list[list[tuple[int, ...]]] = []
+            size, part = 0, 1
+            for rows in sections.values():
+                for i in range(0, len(rows), self.page_rows):
+                    chunk = rows[i : i + self.page_rows]
+                    if current and size + len(chunk) > self.page_rows:
+                        parts.append((lead, part, current))
+                        current, size, part = [], 0, part + 1
+                    current.append(chunk)
+                    size += len(chunk)
+            parts.append((lead, part, current))
+        where = {c: self.page_path(fam.key, first, lead, part) for lead, part, secs in parts for rows in secs for c in rows}
+        within = lambda t: all(f.min_tj <= t[i] <= f.max_tj for i in k.j_positions)  # noqa: E731
         pages, tables = [], []
-        for top in sorted(by_top):
-            entries = tuple(Entry(canon, self.anchor(canon, groups), None, forms, fam.kind) for canon, forms in by_top[top])
-            tid = f"{fam.key}-jmax-{file_code(top)}"
-            title = f"{fam.kind} classes whose largest j, over all {self.class_size} equivalent forms, is {half(top)}"
-            section = Section(title=title, anchor=f"jmax={half(top)}", entries=entries)
-            path = self.page_path(fam.key, top)
-            tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=(section,),
-                                params=(("jmax", top),), kind=fam.kind, **table_files(tid)))
+        for lead, part, secs in parts:
+            path = self.page_path(fam.key, first, lead, part)
+            sections = []
+            for rows in secs:
+                entries = []
+                for c in rows:
+                    mates, every = self.partners(k, c)
+                    beyond = sum(1 for m, _ in every if not within(m)) if mates else 0
+                    linked = tuple(f"{where[m]}#{self.anchor(m, groups)}" for m in mates if m in where)
+                    forms = len(self.filed_by(*c))
+                    entries.append(Entry(c, self.anchor(c, groups), None, forms, fam.kind, partners=linked, beyond=beyond,
+                                         filed_by=self.filed_by))
+                value = rows[0][1]
+                anchor = f"{second}={half(value)}"
+                if any(s.anchor == anchor for s in sections):  # pragma: no cover - chunks go to separate pages
+                    raise AssertionError(f"plan: section {anchor} twice on {path}")
+                sections.append(Section(title=f"{second} = {half(value)}", anchor=anchor, entries=tuple(entries),
+                                        params=((second, value),)))
+            tid = f"{fam.key}-{first}-{file_code(lead)}" + ("" if part == 1 else f"-part{part}")
+            in_parts = sum(1 for p in parts if p[0] == lead) > 1
+            title = f"{fam.kind} symbols with {first} = {half(lead)}" + (f", part {part}" if in_parts else "")
+            tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=tuple(sections),
+                                params=((first, lead),), kind=fam.kind, **table_files(tid)))
             index = Link(f"all {fam.kind} pages", f"index.html#{fam.key}")
-            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.kind}, largest j {half(top)}"))
+            label = f"{fam.kind}, {first} = {half(lead)}" + (f" ({part})" if in_parts else "")
+            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=label))
         return chain(pages), tables
+
+    def page_firsts(self, tables: "tuple[Table, ...]") -> list[list]:
+        """[path, first canonical form on it] per page, in order: how the jump box finds a class's page."""
+        return [[t.page, list(t.sections[0].entries[0].key)] for t in tables]

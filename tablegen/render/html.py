@@ -7,7 +7,7 @@ text forms); this module only chooses which form to print and turns site
 paths into links relative to the page.  Family pages are made by the page
 builder of their layout (html_layouts.py); values are written as MathML at
 build time (mathml.py), so the pages read without scripts; the script adds
-copy buttons and the jump box, fed by a JSON block made from the records
+copy buttons and the jump box, fed by assets/data.js made from the records
 (jumpdata.py).
 """
 
@@ -22,7 +22,7 @@ from ..compute import Shown, ValueBook
 from ..sitemodel import Page, SitePlan, Table
 from . import html_layouts
 from .env import html_environment, templates_dir
-from .jumpdata import jump_json
+from .jumpdata import jump_script
 from .links import relative_url
 from .markdown_pages import render_text_page
 
@@ -30,12 +30,12 @@ __all__ = ["render_html", "relative_url", "asset_paths"]
 
 #: Root-level files written by the data renderer that pages may link to.
 _DATA_FILES = ("values.txt", "recipe.toml", "cite.bib")
-_STYLE, _SCRIPT = "assets/style.css", "assets/site.js"
+_STYLE, _SCRIPT, _DATA = "assets/style.css", "assets/site.js", "assets/data.js"
 
 
 def asset_paths() -> tuple[str, ...]:
     """The files render_html writes besides the pages."""
-    return (_STYLE, _SCRIPT)
+    return (_STYLE, _SCRIPT, _DATA)
 
 
 class _Site:
@@ -46,7 +46,6 @@ class _Site:
         self.book = book
         self.meta = meta
         self.env = html_environment()
-        self.jump = Markup(jump_json(plan))
         self.keys = {f.key for f in plan.families}
 
     def nav(self, page: Page) -> list[dict]:
@@ -84,7 +83,6 @@ class _Site:
             related=[self.link(page, r) for r in page.related],
             convention=fam.convention if fam else "",
             layout_name=fam.layout.name if fam else "",
-            jump=self.jump,
             **context,
         )
         return text.encode("utf-8")
@@ -177,9 +175,10 @@ def _page(site: _Site, page: Page) -> bytes:
 
 
 def render_html(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[tuple[str, bytes]]:
-    """Every HTML page of the plan, then assets/style.css and assets/site.js."""
+    """Every HTML page of the plan, then assets/style.css, assets/site.js and assets/data.js (the jump data)."""
     site = _Site(plan, book, meta)
     for page in plan.pages:
         yield page.path, _page(site, page)
     yield _STYLE, (templates_dir() / "html" / "style.css").read_bytes()
     yield _SCRIPT, (templates_dir() / "html" / "site.js").read_bytes()
+    yield _DATA, jump_script(plan)

@@ -47,6 +47,7 @@ class Cell:
     note: str  # the quantum number not given by row and column (grid: m2)
     twin: str | None  # relative link to the same number in the twin family
     zero: bool
+    why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
 
 
 @dataclass(frozen=True)
@@ -77,7 +78,7 @@ class Companion:
 
 @dataclass(frozen=True)
 class ClassRow:
-    """One symmetry class of a classes page."""
+    """One class of a classes page: the symbols equal under the ordinary symmetries."""
 
     anchor: str
     symbol: Markup
@@ -88,6 +89,9 @@ class ClassRow:
     minus: tuple[str, ...]  # forms equal to minus the value
     companions: tuple[Companion, ...] = ()
     zero: bool = False
+    why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
+    partners: tuple[tuple[str, str], ...] = ()  # (symbol text, link) of each Regge partner on the site
+    beyond: int = 0  # forms of the same value with a j beyond the range (not on the site)
 
 
 def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell:
@@ -100,6 +104,7 @@ def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell
         note=note,
         twin=relative_url(page.path, entry.twin) if entry.twin else None,
         zero=not s.value,
+        why=s.zero_rule,
     )
 
 
@@ -108,6 +113,7 @@ def _grid_rows(site: "_Site", page: Page, fam: Family, section: Section) -> list
     layout, args = fam.layout, fam.kind_record.arguments
     at = {name: args.index(name) for name in ("j1", "j2", "m1", "m2")}
     third = section.params[0][1]
+    j1, j2 = (section.entries[0].key[at[n]] for n in ("j1", "j2"))
     rows = []
     for r, tr in enumerate(section.rows):
         cells, terms = [], []
@@ -125,7 +131,7 @@ def _grid_rows(site: "_Site", page: Page, fam: Family, section: Section) -> list
             kets = mathml.ket_product((entry.key[at["j1"]], entry.key[at["m1"]]), (entry.key[at["j2"]], entry.key[at["m2"]]))
             coeff = "" if s.tex_abs == "1" else mathml.value_inner(s.tex_abs)
             terms.append(Term(sign, Markup(coeff + kets)))
-        ket = Markup(mathml.equation(mathml.ket_product((third, tr)), "")) if layout.row_states else None
+        ket = Markup(mathml.equation(mathml.coupled_ket(j1, j2, third, tr), "")) if layout.row_states else None
         rows.append(Row(label=_qn(tr), anchor=section.row_anchors[r], cells=tuple(cells), ket=ket, terms=tuple(terms)))
     return rows
 
@@ -160,17 +166,27 @@ def _grid_page(site: "_Site", page: Page) -> bytes:
 
 
 def _grid_index(site: "_Site", page: Page, fam: Family) -> dict:
-    """The j1 × j2 table of links to the family's pages."""
-    links = {(t.param("j1"), t.param("j2")): relative_url(page.path, t.page) for t in site.plan.tables_of(fam.key)}
+    """A table of links, rows j1 and columns j2; each cell names the values of the third j its page holds."""
+    pages: dict[tuple[int, int], str] = {}
+    thirds: dict[tuple[int, int], list[int]] = {}
+    for t in site.plan.tables_of(fam.key):  # a split pair: its first part's page, every third j
+        pair = (t.param("j1"), t.param("j2"))
+        pages.setdefault(pair, t.page)
+        thirds.setdefault(pair, []).extend(s.params[0][1] for s in t.sections)
+    links = {}
+    for pair, ks in thirds.items():
+        span = _qn(ks[0]) if len(ks) == 1 else f"{_qn(min(ks))}–{_qn(max(ks))}"
+        links[pair] = (relative_url(page.path, pages[pair]), span)
     js = sorted({a for a, _ in links} | {b for _, b in links})
     return {
         "js": [half_text(t) for t in js],
-        "rows": [(half_text(a), [(half_text(b), links.get((a, b))) for b in js]) for a in js],
+        "third": fam.layout.third,
+        "rows": [(half_text(a), [(half_text(b), *links.get((a, b), (None, ""))) for b in js]) for a in js],
     }
 
 
 # -- classes ------------------------------------------------------------------------------
-def _class_row(site: "_Site", fam: Family, entry: Entry) -> ClassRow:
+def _class_row(site: "_Site", page: Page, fam: Family, entry: Entry) -> ClassRow:
     k = fam.kind_record
     s = site.shown(fam.kind, entry.key)
     companions = []
@@ -179,37 +195,80 @@ def _class_row(site: "_Site", fam: Family, entry: Entry) -> ClassRow:
         other = site.shown(c.kind, args)
         math = mathml.equation(mathml.symbol(kind(c.kind).notation, args), mathml.value_inner(other.tex))
         companions.append(Companion(Markup(math), other.tex, sign < 0))
+    forms = fam.layout.filed_by(*entry.key)  # the class: signs relative to its canonical form, the key
+    left, right = k.notation.brackets or "{}"
+    partners = tuple(
+        (f"{left}{_dash(target.split('#', 1)[1]).replace(',', ' ').replace(';', '; ')}{right}", relative_url(page.path, target))
+        for target in entry.partners
+    )
     return ClassRow(
         anchor=entry.anchor,
         symbol=Markup(mathml.symbol(k.notation, entry.key)),
         tex=s.tex,
         math=Markup(mathml.value_inner(s.tex)),
         decimal=s.decimal,
-        plus=tuple(k.text(m) for m, sign in entry.members if sign > 0),
-        minus=tuple(k.text(m) for m, sign in entry.members if sign < 0),
+        plus=tuple(k.text(m) for m, sign in forms if sign > 0),
+        minus=tuple(k.text(m) for m, sign in forms if sign < 0),
         companions=tuple(companions),
         zero=not s.value,
+        why=s.zero_rule,
+        partners=partners,
+        beyond=entry.beyond,
     )
 
 
 def _classes_page(site: "_Site", page: Page) -> bytes:
     table = site.plan.table(page.tables[0])
     fam = site.plan.family(table.family)
-    classes = [_class_row(site, fam, e) for e in table.entries]
+    sections = [{"title": s.title, "anchor": s.anchor, "classes": [_class_row(site, page, fam, e) for e in s.entries]}
+                for s in table.sections]
+    classes = [c for s in sections for c in s["classes"]]
     return site.render(
         "classes.html",
         page,
         table=table,
         fam=fam,
-        section=table.sections[0],
-        classes=classes,
+        sections=sections,
+        count=len(classes),
         forms=sum(len(c.plus) + len(c.minus) for c in classes),
         files=site.files(page, table),
     )
 
 
+def _classes_index(site: "_Site", page: Page, fam: Family) -> dict:
+    """Per first entry: its pages' sections (second entry) and truthful counts.
+
+    Forms counted are those with every j in the range (each on exactly one row);
+    forms of the same values with a j beyond the range are counted apart, once
+    per value class on the page.
+    """
+    leads: dict[int, dict] = {}
+    for t in site.plan.tables_of(fam.key):
+        (name, value), = t.params
+        item = leads.setdefault(value, {"name": name, "label": _qn(value), "href": relative_url(page.path, t.page),
+                                        "sections": [], "count": 0, "forms": 0, "beyond": 0, "seen": set()})
+        for sec in t.sections:
+            if not any(x["title"] == sec.title for x in item["sections"]):
+                item["sections"].append({"title": sec.title, "label": _qn(sec.params[0][1]),
+                                         "href": relative_url(page.path, f"{t.page}#{sec.anchor}")})
+            for e in sec.entries:
+                item["count"] += 1
+                item["forms"] += len(fam.layout.filed_by(*e.key))
+                if e.beyond:
+                    value_class = fam.kind_record.members(*e.key)[0][0]
+                    if value_class not in item["seen"]:
+                        item["seen"].add(value_class)
+                        item["beyond"] += e.beyond
+    out = []
+    for item in leads.values():
+        item.pop("seen")
+        out.append(item)
+    second = fam.kind_record.arguments[1]
+    return {"leads": out, "second": second}
+
+
 def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
-    """A list of the family's pages with their counts (classes and matrix layouts)."""
+    """A list of the family's pages with their counts (matrix layout)."""
     items = []
     for t in site.plan.tables_of(fam.key):
         (name, value), = t.params
@@ -247,4 +306,4 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
 
 
 PAGES = {"grid": _grid_page, "classes": _classes_page, "matrix": _matrix_page}
-INDEX_PARTS = {"grid": _grid_index, "classes": _pages_index, "matrix": _pages_index}
+INDEX_PARTS = {"grid": _grid_index, "classes": _classes_index, "matrix": _pages_index}

@@ -2,8 +2,10 @@
 
 The page script finds a typed symbol offline, from disk, so it cannot ask the
 generator anything: every name, path and anchor pattern it uses is written into
-each page as a JSON block (``<script type="application/json" id="tablegen-data">``)
-made here from the Kind and Family records.  The script keeps only parsing, the
+one small script file, ``assets/data.js`` (``window.tablegenData = {...};``), that
+every page loads with ``<script src>`` before site.js (a page opened from disk
+may load a script but cannot fetch a file), made here from the Kind and Family
+records.  The script keeps only parsing, the
 selection-rule checks on these lists and the symmetry algorithms a classes
 layout needs (named by the kind's ``members`` function).
 """
@@ -17,7 +19,7 @@ from ..kinds import Kind, kind
 from ..kinds.common import TRIAD_TEXT
 from ..sitemodel import SitePlan
 
-__all__ = ["jump_data", "jump_json", "mapping_as_data"]
+__all__ = ["jump_data", "jump_json", "jump_script", "mapping_as_data"]
 
 
 def mapping_as_data(mapping, size: int) -> dict:
@@ -68,14 +70,22 @@ def _family(fam: Family, plan: SitePlan) -> dict:
         "kind": fam.kind,
         "title": fam.title,
         "range": [f.min_tj, f.max_tj],
-        "page": layout.page_pattern(fam.key),
     }
+    if hasattr(layout, "page_pattern"):
+        out["page"] = layout.page_pattern(fam.key)
     if layout.name == "classes":
-        out["members"] = fam.kind_record.members.__name__
-        out["pages"] = list(dict(plan.family_pages)[fam.key])
+        out["members"] = fam.kind_record.members.__name__  # every symmetry: finds a form in range
+        out["filed"] = layout.filed_by.__name__  # the ordinary symmetries: the row a symbol is filed under
+        out["pages"] = layout.page_firsts(plan.tables_of(fam.key))  # [path, first canonical form] in order
     else:
         out["anchor"] = layout.anchor_pattern()
         out["params"] = list(layout.params)
+    if hasattr(layout, "split"):  # grid: pairs too large for one page have a page per third j
+        pairs = sorted({(t.param("j1"), t.param("j2")) for t in plan.tables_of(fam.key)})
+        split = [f"{a},{b}" for a, b in pairs if layout.split(a, b)]
+        if split:
+            out["split"] = split
+            out["splitPage"] = layout.split_pattern(fam.key)
     return out
 
 
@@ -105,3 +115,8 @@ def jump_json(plan: SitePlan) -> str:
     """The JSON block's text, safe inside <script> (no '</' can close it early)."""
     text = json.dumps(jump_data(plan), ensure_ascii=False, sort_keys=True, separators=(",", ":"))
     return text.replace("</", "<\\/")
+
+
+def jump_script(plan: SitePlan) -> bytes:
+    """assets/data.js: the jump data as one global, written once per build instead of into every page."""
+    return ("window.tablegenData = " + jump_json(plan) + ";\n").encode("utf-8")

@@ -9,7 +9,7 @@ __all__ = ["relative_url"]
 
 
 def relative_url(from_page: str, target: str) -> str:
-    """The link from one site path to another ('cg/1x1.html' -> '../3j/1x1.html#...')."""
+    """The link from one site path to another ('cg/j1-1-j2-1.html' -> '../3j/j1-1-j2-1.html#...')."""
     path, hash_, anchor = target.partition("#")
     if not path:
         return f"#{anchor}"

@@ -38,6 +38,7 @@ __all__ = [
     "ket_product",
     "ket",
     "ket_text",
+    "coupled_ket",
     "math",
 ]
 
@@ -410,6 +411,15 @@ def ket_product(*pairs: tuple[int, int]) -> str:
 def ket_text(tj: int, tm: int) -> str:
     """|j, m⟩ as plain text for an <mtext> (compact, for long ket expansions)."""
     return f"|{half_text(tj)}, {half_text(tm)}⟩".replace("-", MINUS)
+
+
+def coupled_ket(tj1: int, tj2: int, tj: int, tm: int) -> str:
+    """|(j1, j2) J, M⟩ as one <mtext>: a coupled state with its coupling shown.
+
+    Written differently from a product state |j1, m1⟩|j2, m2⟩, so that an
+    expansion never uses one notation for both sides.
+    """
+    return text(f"|({half_text(tj1)}, {half_text(tj2)}) {half_text(tj)}, {half_text(tm)}⟩".replace("-", MINUS))
 
 
 def ket(tj: int, tm: int) -> str:

@@ -4,7 +4,7 @@
  * request is made.  What the jump box must know -- the kinds of value with
  * their argument names, selection rules and notation, the families with their
  * layouts, ranges, page-name and anchor patterns -- is written into every page
- * by the generator, from its records, as the JSON block #tablegen-data.  This
+ * by the generator, from its records, as assets/data.js (window.tablegenData).  This
  * script keeps only the parsing of typed numbers and the symmetry algorithms
  * that find the canonical form of a typed symbol.  The pages read fine without it.
  */
@@ -19,10 +19,10 @@
   var DATA = readData();
   html.className += " js";
 
+  // assets/data.js, loaded just before this script, sets window.tablegenData.
   function readData() {
-    var block = doc.getElementById("tablegen-data");
-    if (!block) return null;
-    try { return JSON.parse(block.textContent); } catch (e) { return null; }
+    var data = window.tablegenData;
+    return data && data.kinds ? data : null;
   }
 
   // ---------------------------------------------------------------- copying
@@ -66,7 +66,7 @@
     return b;
   }
 
-  // The LaTeX of a coupled state |J M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
+  // The LaTeX of a coupled state |(j1,j2) J,M> = sum <j1 m1; j2 m2|J M> |j1,m1>|j2,m2>,
   // made from the LaTeX of the coefficients in its grid row (each cell's data-t).
   // The row's id is "<tag>:<third>=<value>,<row>=<value>", as the grid layout writes it.
   function ketLatex(li) {
@@ -75,7 +75,7 @@
     var row = link.closest("tr");
     var j = row.closest("table").getAttribute("data-j").split(",");
     var tM = doubled(state[3], state[2]);
-    var out = "|" + state[1] + "," + state[3] + "\\rangle = ";
+    var out = "|(" + j[0] + "," + j[1] + ")\\," + state[1] + "," + state[3] + "\\rangle = ";
     var first = true;
     var cells = row.querySelectorAll("td[data-t]");
     for (var i = 0; i < cells.length; i++) {
@@ -252,14 +252,31 @@
   }
 
   // Named after the Python function each one mirrors (the kind's "members").
-  var MEMBERS = { sixj_members: sixjMembers, ninej_members: ninejMembers };
+  // 6j ordinary (tetrahedral) symmetries: permute the columns, and exchange upper
+  // and lower entries in two of them; all forms equal.
+  function sixjTetrahedralMembers(t) {
+    var cols = [[t[0], t[3]], [t[1], t[4]], [t[2], t[5]]], flips = [[0, 0, 0], [1, 1, 0], [1, 0, 1], [0, 1, 1]];
+    var forms = [], signs = [];
+    permutations(cols).forEach(function (p) {
+      flips.forEach(function (fl) {
+        var c = p.map(function (col, i) { return fl[i] ? [col[1], col[0]] : col; });
+        forms.push([c[0][0], c[1][0], c[2][0], c[0][1], c[1][1], c[2][1]]);
+        signs.push(1);
+      });
+    });
+    return [forms, signs];
+  }
+
+  var MEMBERS = { sixj_members: sixjMembers, ninej_members: ninejMembers,
+    sixj_tetrahedral_members: sixjTetrahedralMembers };
 
   // ------------------------------------------------------------ finding
   var KINDS = {}, KIND_ORDER = [];
   if (DATA) DATA.kinds.forEach(function (k) { KINDS[k.id] = k; KIND_ORDER.push(k.id); });
 
-  function result(kind, text, path, anchor) {
-    return { kind: kind, text: text, path: path || null, anchor: anchor || null };
+  // factor: value(typed symbol) = factor * value(the highlighted row or cell).
+  function result(kind, text, path, anchor, factor) {
+    return { kind: kind, text: text, path: path || null, anchor: anchor || null, factor: factor || 1 };
   }
   function zero(text) { return result("zero", "Zero: " + text + ", so it is not tabulated."); }
   function minusOne(sign) { return sign < 0 ? "\u22121 \u00d7 " : ""; }
@@ -304,28 +321,34 @@
     if (!inRange(fam, params)) {
       return result("bad", fam.params.join(" and ") + " must be in this build's range " + rangeText(fam) + ".");
     }
-    return result("ok", "", fill(fam.page, named, fileCode), fill(fam.anchor, named, half));
+    var page = fam.page;  // a pair too large for one page has a page per third j
+    if (fam.split && fam.split.indexOf(named.j1 + "," + named.j2) >= 0) page = fam.splitPage;
+    return result("ok", "", fill(page, named, fileCode), fill(fam.anchor, named, half));
   }
 
-  // classes layout: the page of the canonical (largest) form, the row of its class.
+  // classes layout: a form of the symbol with every j in range (any symmetry of
+  // the kind, "members"), then the largest form of its ordinary class ("filed"):
+  // the row it is filed under; its page is the last whose first form is not larger.
   function classTarget(fam, k, t, what, sign) {
-    var both = MEMBERS[fam.members](t), forms = both[0], signs = both[1], i, any = false;
-    for (i = 0; i < forms.length; i++) if (inRange(fam, forms[i])) { any = true; break; }
-    if (!any) return result("bad", "No form of this " + k.key + " has every j in this build's range " + rangeText(fam) + ".");
-    var best = 0;
-    for (i = 1; i < forms.length; i++) if (greater(forms[i], forms[best])) best = i;
-    var canon = forms[best], total = sign * signs[best];
-    var path = fill(fam.page, { top: canon[0] }, fileCode);
-    if (fam.pages.indexOf(path) < 0) return result("bad", "This " + k.key + " is not part of this build.");
+    var both = MEMBERS[fam.members](t), forms = both[0], signs = both[1], i, at = -1;
+    if (inRange(fam, t)) at = forms.map(function (f) { return f.join(); }).indexOf(t.join());
+    for (i = 0; at < 0 && i < forms.length; i++) if (inRange(fam, forms[i])) at = i;
+    if (at < 0) return result("bad", "No form of this " + k.key + " has every j in this build's range " + rangeText(fam) + ".");
+    var own = MEMBERS[fam.filed](forms[at]), best = 0;
+    for (i = 1; i < own[0].length; i++) if (greater(own[0][i], own[0][best])) best = i;
+    var canon = own[0][best], total = sign * signs[at] * own[1][best];
+    var path = null;
+    for (i = 0; i < fam.pages.length; i++) if (!greater(fam.pages[i][1], canon)) path = fam.pages[i][0];
+    if (!path) return result("bad", "This " + k.key + " is not part of this build.");
     var same = canon.join() === t.join(), text = "";
     if (what) {
       text = what + " = " + minusOne(sign) + writeSymbol(k, t) +
-        (same ? "" : " = " + minusOne(total) + "the canonical form " + writeSymbol(k, canon)) + ".";
+        (same ? "" : " = " + minusOne(total) + writeSymbol(k, canon)) + " (highlighted row).";
     } else if (!same) {
-      text = writeSymbol(k, t) + (total < 0 ? " = \u22121 \u00d7 its canonical form " : " equals its canonical form ") +
-        writeSymbol(k, canon) + ", shown highlighted.";
+      text = "Filed under " + writeSymbol(k, canon) + " (highlighted row)" +
+        (total < 0 ? ", which is \u22121 \u00d7 the symbol above." : ", which is equal to it.");
     }
-    return result("ok", text, path, classAnchor(k, canon));
+    return result("ok", text, path, classAnchor(k, canon), total);
   }
 
   function resolve(id, t) {
@@ -344,8 +367,9 @@
       sign = (s / 2) % 2 === 0 ? 1 : -1;
       what = writeSymbol(k, t);
     }
-    if (fam.layout === "classes") return classTarget(fam, main, target, what, sign);
-    return patternTarget(fam, main, target);
+    var res = fam.layout === "classes" ? classTarget(fam, main, target, what, sign) : patternTarget(fam, main, target);
+    res.typed = writeSymbol(k, t);
+    return res;
   }
 
   // ------------------------------------------------------------ the box
@@ -356,18 +380,81 @@
     try { return JSON.parse(sessionStorage.getItem(NOTE_KEY) || "null"); } catch (e) { return null; }
   }
 
-  // The note about a jump (sign, canonical form) floats at the bottom of the
-  // window, where it is seen next to the highlighted value, until closed.
-  function showBanner(text) {
+  // The value of a landing place as the page prints it: its LaTeX, its MathML, its decimal.
+  function printedValue(anchor) {
+    var el = doc.getElementById(anchor);
+    if (!el) return null;
+    var cell = el.tagName === "TD" ? el : el.querySelector("td[data-t]");
+    if (!cell) return null;
+    var decimal = "", small = cell.querySelector("small:not(.why)"), i;
+    if (small) decimal = small.textContent;
+    else for (i = 0; i < cell.childNodes.length; i++) if (cell.childNodes[i].nodeType === 3) decimal += cell.childNodes[i].textContent;
+    return { tex: cell.getAttribute("data-t"), math: cell.querySelector("math"), decimal: decimal.trim() || "0" };
+  }
+
+  // factor * a printed value, as text: only the sign changes (the site prints every value sign first).
+  function signedTex(tex, factor) {
+    if (factor > 0 || tex === "0") return tex;
+    if (tex.charAt(0) === "-") return tex.slice(1);
+    return /[+-]/.test(tex) ? "-\\left(" + tex + "\\right)" : "-" + tex;
+  }
+  function signedDecimal(text, factor) {
+    if (factor > 0 || /^[-\u2212]?0(\.0*)?$/.test(text)) return text;
+    return text.charAt(0) === "-" ? text.slice(1) : "-" + text;
+  }
+  function signedMath(math, factor) {
+    var out = math.cloneNode(true);
+    if (factor > 0 || !out.firstElementChild) return out;
+    var first = out.firstElementChild;
+    if (first.tagName.toLowerCase() === "mo" && first.textContent === "\u2212") { out.removeChild(first); return out; }
+    var minus = doc.createElementNS(out.namespaceURI, "mo");
+    minus.textContent = "\u2212";
+    out.insertBefore(minus, first);
+    return out;
+  }
+
+  // The symbol as the reader typed it (or as a link named it), with its own
+  // value, sign, decimal and LaTeX; the row it is filed under stays highlighted.
+  function landing(state) {
+    if (!state.typed) return null;
+    var v = printedValue(state.to.split("#")[1]);
+    if (!v || !v.math) return null;
+    var factor = state.factor || 1, tex = signedTex(v.tex, factor);
+    var p = doc.createElement("p");
+    p.className = "said";
+    var sym = doc.createElement("span");
+    sym.className = "typed";
+    sym.textContent = state.typed + " =";
+    p.appendChild(sym);
+    p.appendChild(doc.createTextNode(" "));
+    p.appendChild(signedMath(v.math, factor));
+    var dec = doc.createElement("small");
+    dec.textContent = signedDecimal(v.decimal, factor);
+    p.appendChild(dec);
+    p.appendChild(copyButton("TeX", "Copy the LaTeX of this value: " + tex, function () { return tex; }));
+    p.setAttribute("data-value", tex);
+    return p;
+  }
+
+  // The note about a jump floats at the bottom of the window, where it is seen
+  // next to the highlighted value, until closed.
+  function showBanner(text, state) {
     var old = doc.getElementById("jump-note");
     if (old) old.parentNode.removeChild(old);
-    if (!text) return;
+    var said = state ? landing(state) : null;
+    if (!text && !said) return;
     var note = doc.createElement("div");
     note.id = "jump-note";
     note.className = "banner";
     note.setAttribute("role", "status");
-    var p = doc.createElement("p");
-    p.textContent = text;
+    var p = doc.createElement("div");
+    if (said) p.appendChild(said);
+    if (text) {
+      var ctx = doc.createElement("p");
+      ctx.className = "ctx";
+      ctx.textContent = text;
+      p.appendChild(ctx);
+    }
     var close = doc.createElement("button");
     close.type = "button";
     close.textContent = "\u00d7";
@@ -466,7 +553,9 @@
         out.textContent = res.text;
         return;
       }
-      remember({ fam: fam, values: values, to: res.path + "#" + res.anchor, note: res.text });
+      var state = { fam: fam, values: values, to: res.path + "#" + res.anchor, note: res.text,
+        typed: res.typed, factor: res.factor };
+      remember(state);
       if (res.path === HERE) {
         if (location.hash === "#" + res.anchor) {
           var el = doc.getElementById(res.anchor);
@@ -474,7 +563,7 @@
         } else {
           location.hash = res.anchor;
         }
-        showBanner(res.text);
+        showBanner(res.text, state);
       } else {
         location.href = ROOT + res.path + "#" + res.anchor;
       }
@@ -490,7 +579,7 @@
     }
     if (fam) select.value = fam;
     layout(state && state.fam === select.value ? state.values : null);
-    if (state && state.note && state.to === HERE + decodeURIComponent(location.hash)) showBanner(state.note);
+    if (state && state.to === HERE + decodeURIComponent(location.hash)) showBanner(state.note, state);
     box.hidden = false;
 
     // "/" focuses the box from anywhere on the page.
@@ -498,16 +587,66 @@
       var tag = (ev.target && ev.target.tagName) || "";
       if (ev.key === "/" && tag !== "INPUT" && tag !== "TEXTAREA" && tag !== "SELECT") {
         ev.preventDefault();
+        box.parentNode.classList.add("open");  // unfold it on a narrow screen
         inputs[0].focus();
         box.scrollIntoView();
       }
     });
   }
 
+  // A link may name any form of a symbol in the page's family ("#1,1/2,1/2;1,1/2,3/2;1,1,2"):
+  // it is taken to the row the form is filed under, and the form is shown with its own value.
+  function followForm() {
+    var hash = decodeURIComponent(location.hash.slice(1));
+    if (!hash || doc.getElementById(hash) || !DATA) return;
+    var famKey = doc.body.className, id = null;
+    KIND_ORDER.forEach(function (k) { if (!id && KINDS[k].family === famKey && !KINDS[k].map) id = k; });
+    if (!id) return;
+    var k = KINDS[id], parts = hash.split(";"), t = [], res;
+    if (parts.length !== k.groups.length) return;
+    try {
+      k.groups.forEach(function (g, gi) {
+        var items = parts[gi].split(",");
+        if (items.length !== g.length) throw new InputError("shape");
+        g.forEach(function (at, i) { t[at] = doubled(items[i], k.names[at]); });
+      });
+      res = resolve(id, t);
+    } catch (e) {
+      if (e instanceof InputError) return;
+      throw e;
+    }
+    if (res.kind !== "ok") { showBanner(writeSymbol(k, t) + ": " + res.text, null); return; }
+    var state = { fam: id, values: t.map(half), to: res.path + "#" + res.anchor, note: res.text,
+      typed: res.typed, factor: res.factor };
+    remember(state);
+    if (res.path === HERE) { location.replace("#" + res.anchor); showBanner(res.text, state); }
+    else location.replace(ROOT + res.path + "#" + res.anchor);
+  }
+
+  // On a narrow screen the box is folded away (CSS) behind a button in the bar.
+  function addFindToggle(box) {
+    var bar = doc.querySelector(".top .bar"), top = box.parentNode;
+    if (!bar) return;
+    var b = doc.createElement("button");
+    b.type = "button";
+    b.className = "find";
+    b.textContent = "Go to\u2026";
+    b.setAttribute("aria-expanded", "false");
+    b.addEventListener("click", function () {
+      var open = !top.classList.contains("open");
+      top.classList.toggle("open", open);
+      b.setAttribute("aria-expanded", String(open));
+      if (open) { var first = box.querySelector("input"); if (first) first.focus(); }
+    });
+    bar.appendChild(b);
+  }
+
   function start() {
     addCopyButtons();
     var box = doc.getElementById("jump");
-    if (box && DATA && KIND_ORDER.length) buildBox(box);
+    if (box && DATA && KIND_ORDER.length) { buildBox(box); addFindToggle(box); }
+    followForm();
+    window.addEventListener("hashchange", followForm);
   }
 
   if (doc.readyState === "loading") doc.addEventListener("DOMContentLoaded", start);
