@@ -15,6 +15,7 @@ import sys
 from . import __version__
 from .coefficients import KINDS
 from .errors import TablegenError
+from .values.latex import LATEX_STYLES
 
 __all__ = ["main"]
 
@@ -75,7 +76,7 @@ def _build_parser():
     for family in ("cg", "3j", "6j", "9j"):
         build.add_argument(f"--{family}", metavar="RANGE", dest=f"range_{family}", help=f"range of j for {family}")
     build.add_argument("--digits", type=int, help="significant digits of the decimals")
-    build.add_argument("--latex-style", choices=("root", "rational"), help="LaTeX root style")
+    build.add_argument("--latex-style", choices=LATEX_STYLES, help="LaTeX style of the values")
     build.add_argument("--title", help="title of the build")
     build.add_argument("--notes", help="notes shown on the index page")
     build.add_argument("--jobs", type=int, help="processes for computing (default: all cores)")
