@@ -3,8 +3,9 @@
 The result is a ValueBook: (kind key, doubled key) -> Shown, for each
 table's kind and for the companions its family record names (Racah W beside
 a 6j).  Shown carries the
-exact value and each text form the renderers print (exact text, signed
-square, decimal, LaTeX in the recipe's root style), so that renderers only format.
+exact value and each text form the renderers print (exact text, the parts
+sign, p, q of sign*sqrt(p/q), decimal, LaTeX in the recipe's style), so that
+renderers only format.
 Work is split into fixed chunks in plan order and reassembled in that order,
 so the result does not depend on how many processes ran.
 """
@@ -32,7 +33,7 @@ class Shown:
 
     value: Surd
     exact: str
-    square: str
+    parts: tuple[int, int, int] | None  # (sign, p, q) of sign*sqrt(p/q), p/q reduced; None for a function
     decimal: str
     tex: str  # in the recipe's LaTeX style
 
@@ -49,15 +50,14 @@ def show(value: Surd, digits: int, style: str) -> Shown:
     """All text forms of one value.
 
     A value that is a function (a rotation function d(beta) as a trigonometric
-    polynomial) has no single decimal and no rational square: those forms are
+    polynomial) has no single decimal and no parts sign, p, q: those forms are
     left empty, the exact text and the LaTeX are still written.
     """
-    squared = getattr(value, "squared", None)
     decimal = getattr(value, "decimal", None)
     return Shown(
         value=value,
         exact=str(value),
-        square=str(squared()) if squared else "",
+        parts=(value.sign, value.p, value.q) if isinstance(value, Surd) else None,
         decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
     )

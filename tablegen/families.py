@@ -24,8 +24,9 @@ from .layouts import ClassesLayout, GridLayout, Layout, MatrixLayout
 __all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
            "ClassesLayout", "MatrixLayout"]
 
-#: Columns of every data row after the arguments.
-VALUE_COLUMNS = ("exact", "square", "decimal")
+#: Columns of every data row after the arguments: the exact text, then the value
+#: sign*sqrt(p/q) as its three integers (p/q reduced; zero is 0, 0, 1), then the decimal.
+VALUE_COLUMNS = ("exact", "sign", "p", "q", "decimal")
 
 
 @dataclass(frozen=True, slots=True)

@@ -58,7 +58,8 @@ class _Engine:
         return hit[1], hit[2]
 
 
-def _check_value(report: Report, engine: _Engine, where: str, family: str, args, exact, square, decimal) -> None:
+def _check_value(report: Report, engine: _Engine, where: str, family: str, args, exact, parts, decimal) -> None:
+    """``parts``: the written (sign, p, q) of sign*sqrt(p/q), as text (CSV) or numbers (JSON), or None."""
     report.values += 1
     try:
         t, value = engine.value(family, tuple(args))
@@ -68,8 +69,10 @@ def _check_value(report: Report, engine: _Engine, where: str, family: str, args,
     name = symbol_text(family, t)
     if exact is not None and exact != str(value):
         report.problems.append(f"{where}: {name}: exact {exact!r}, but the engine gives {str(value)!r}")
-    if square is not None and square != str(value.squared()):
-        report.problems.append(f"{where}: {name}: square {square!r}, but the engine gives {str(value.squared())!r}")
+    want_parts = [str(value.sign), str(value.p), str(value.q)]
+    if parts is not None and [str(x) for x in parts] != want_parts:
+        report.problems.append(f"{where}: {name}: sign, p, q {' '.join(map(str, parts))}, "
+                               f"but the engine gives {' '.join(want_parts)}")
     if decimal is not None and engine.digits is not None:
         want = value.decimal(engine.digits)
         if decimal != want:
@@ -129,16 +132,17 @@ def _check_csv(root: Path, path: str, engine: _Engine, report: Report) -> None:
         return
     head = rows[0]
     family = _family_of_columns(head)
-    if family is None or not {"exact", "square", "decimal"} <= set(head):
+    if family is None or not {"exact", "sign", "p", "q", "decimal"} <= set(head):
         report.problems.append(f"{path}: unrecognised header {','.join(head)}")
         return
     n = len(ARGUMENT_NAMES[family])
-    ie, iq, idec = head.index("exact"), head.index("square"), head.index("decimal")
+    ie, idec = head.index("exact"), head.index("decimal")
+    iparts = [head.index(c) for c in ("sign", "p", "q")]
     for i, row in enumerate(rows[1:], 2):
         if len(row) != len(head):
             report.problems.append(f"{path} line {i}: {len(row)} fields, expected {len(head)}")
             continue
-        _check_value(report, engine, f"{path} line {i}", family, row[:n], row[ie], row[iq], row[idec])
+        _check_value(report, engine, f"{path} line {i}", family, row[:n], row[ie], [row[i] for i in iparts], row[idec])
         engine.seen_in_tables.add((family, tuple(row[:n])))
         if family == "6j" and "w" in head:
             engine.seen_in_tables.add(("w", tuple(row[head.index("w")].split(" "))))
@@ -159,11 +163,12 @@ def _check_json(root: Path, path: str, engine: _Engine, report: Report) -> None:
         return
     for i, row in enumerate(doc.get("rows", []), 1):
         try:
-            args, exact, square, decimal = row["args"], row["exact"], row["square"], row["decimal"]
+            args, exact, decimal = row["args"], row["exact"], row["decimal"]
+            parts = [row["sign"], row["p"], row["q"]]
         except (KeyError, TypeError):
-            report.problems.append(f"{path} row {i}: missing args/exact/square/decimal")
+            report.problems.append(f"{path} row {i}: missing args/exact/sign/p/q/decimal")
             continue
-        _check_value(report, engine, f"{path} row {i}", family, args, exact, square, decimal)
+        _check_value(report, engine, f"{path} row {i}", family, args, exact, parts, decimal)
 
 
 def _check_values_txt(root: Path, engine: _Engine, report: Report) -> None:

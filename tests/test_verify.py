@@ -78,9 +78,13 @@ def test_fresh_build_verifies(capsys, built: Path) -> None:
 CHANGES = [
     # (file, old text, new text, words every matching problem must carry)
     ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),", "1,1,1,-1,0,0,sqrt(1/5),", ["<1 1; 1 -1 | 0 0>", "exact"]),
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626",
-     "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
-    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,", "1,1,1,-1,0,0,sqrt(1/3),1/2,", ["<1 1; 1 -1 | 0 0>", "square"]),
+    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189626",
+     "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
+    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,", "1,1,1,-1,0,0,sqrt(1/3),1,1,2,", ["<1 1; 1 -1 | 0 0>", "sign, p, q"]),
+    ("data/cg-1x1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,", "1,1,1,-1,0,0,sqrt(1/3),-1,1,3,", ["<1 1; 1 -1 | 0 0>", "sign, p, q"]),
+    ("data/6j-jmax-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6","sign":1,"p":1,"q":36',
+     '"args":["1","1","1","1","1","1"],"exact":"1/6","sign":1,"p":1,"q":35',
+     ["{1 1 1; 1 1 1}", "sign, p, q"]),
     ("data/6j-jmax-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6"',
      '"args":["1","1","1","1","1","1"],"exact":"1/7"', ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\n6j 1 1 1 1 1 1 1/6\n", "\n6j 1 1 1 1 1 1 1/9\n", ["{1 1 1; 1 1 1}", "exact"]),
@@ -207,7 +211,7 @@ def test_a_deleted_table_row_is_noticed_even_when_resealed(capsys, site: Path) -
     # J = 0 state of two spin-1 particles (Condon & Shortley 1935, from memory).
     csv_path = site / "data" / "cg-1x1.csv"
     lines = csv_path.read_text(encoding="utf-8").splitlines(keepends=True)
-    row = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
+    row = "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189626\n"
     assert row in lines
     csv_path.write_text("".join(line for line in lines if line != row), encoding="utf-8")
     _reseal(site, "data/cg-1x1.csv")
