@@ -12,6 +12,8 @@ from .recoupling import lsjj_matrices, recoupling, recoupling_matrix, recoupling
 from .rotations import rotation_D, rotation_d, rotation_d_matrix, spherical_y
 
 __version__ = "0.1.0"
+#: The year this version was released: the year a citation of a build names (never the clock).
+RELEASE_YEAR = 2026
 
 __all__ = [
     "cg",
@@ -31,4 +33,5 @@ __all__ = [
     "TablegenError",
     "QuantumNumberError",
     "__version__",
+    "RELEASE_YEAR",
 ]

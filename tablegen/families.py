@@ -118,8 +118,9 @@ FAMILIES: tuple[Family, ...] = (
         title="Wigner 6j symbols and Racah W",
         nav_label="6j & W",
         layout=ClassesLayout(class_size=144),
-        convention="Condon–Shortley phase. W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f}. "
-        "All forms of a class (tetrahedral and Regge symmetries) are equal.",
+        convention="No phase choice of its own: once the Clebsch–Gordan phase is fixed, the recoupling of three "
+        "angular momenta fixes the 6j, sign included. W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f} "
+        "fixes the sign of W. All forms of a class (tetrahedral and Regge symmetries) are equal.",
         companions=(Companion("w", "Racah W", w_of_sixj),),
     ),
     Family(
@@ -128,7 +129,8 @@ FAMILIES: tuple[Family, ...] = (
         title="Wigner 9j symbols",
         nav_label="9j",
         layout=ClassesLayout(class_size=72),
-        convention="Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
+        convention="No phase choice of its own: the recoupling of four angular momenta fixes it, sign included. "
+        "Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),
 )
