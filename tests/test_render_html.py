@@ -388,3 +388,62 @@ def test_other_recipes_render_with_working_links(mapping):
             assert parsed[table.page].tex.get(entry.anchor, shown.tex) == shown.tex
             if shown.value:
                 assert shown.decimal in files[table.page].decode("utf-8")
+
+
+# -- "symbol = value" in LaTeX -------------------------------------------------------------
+_TABLE = re.compile(r'<table [^>]*?data-e="([^"]*)"(?: data-note="([^"]*)")?>(.*?)</table>', re.S)
+_CELL = re.compile(r'<td id="([^"]+)" data-t="([^"]*)"[^>]*>(.*?)</td>', re.S)
+_OWN = re.compile(r'<tr id="([^"]+)">(.*?)</tr>', re.S)
+
+
+def _fill(pattern: str, cell_id: str, note_name: str | None, note: str | None) -> str:
+    """What site.js does: each @name@ from the cell's id (name=value pairs) or its corner note.
+
+    site.js then appends " = " and the cell's data-t.
+    """
+    values = dict(pair.split("=", 1) for pair in re.split(r"[,;]", cell_id) if "=" in pair)
+    if note_name and note is not None:
+        values[note_name] = note.replace("−", "-")
+    return re.sub(r"@([^@]+)@", lambda m: values[m.group(1)], pattern)
+
+
+def test_every_value_copies_as_symbol_equals_value(built):
+    # the LaTeX symbol comes from the kind's notation record; the value is the cell's own LaTeX
+    from html import unescape
+
+    from tablegen.kinds import kind
+    from tablegen.render.latex import latex_symbol
+    from tablegen.spins import half_text
+
+    _, plan, book, _, files = built
+
+    def expected(kind_key, key):
+        symbol = latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
+        return f"{symbol} = {book[(kind_key, key)].tex}"
+
+    checked = 0
+    for table in plan.tables:
+        text = files[table.page].decode("utf-8")
+        by_anchor = {e.anchor: e for e in table.entries}
+        fam = plan.family(table.family)
+        if fam.layout.name == "classes":
+            for row_id, body in _OWN.findall(text):
+                entry = by_anchor[unescape(row_id)]
+                own = [unescape(e) for e in re.findall(r'<td data-t="[^"]*" data-e="([^"]*)"', body)]
+                wanted = [expected(fam.kind, entry.key)]
+                wanted += [expected(c.kind, c.mapping(entry.key)[0]) for c in fam.companions]
+                assert own == wanted, (table.id, row_id)
+                checked += 1
+            continue
+        for pattern, note_name, body in _TABLE.findall(text):
+            for cell_id, tex, inner in _CELL.findall(body):
+                note = re.search(r"<var>(.*?)</var>", inner)
+                symbol = _fill(unescape(pattern), unescape(cell_id), note_name, note and note.group(1))
+                entry = by_anchor[unescape(cell_id)]
+                assert f"{symbol} = {unescape(tex)}" == expected(fam.kind, entry.key), (table.id, cell_id)
+                checked += 1
+    assert checked == sum(len(t.entries) for t in plan.tables)
+    # one by hand: <1 1; 1 -1 | 0 0> = 1/sqrt(3) (two spin 1 coupled to J = 0, common practice)
+    cg = files[plan.table("cg-1x1").page].decode("utf-8")
+    pattern = next(p for p, _, b in _TABLE.findall(cg) if 'id="J=0,M=0,m1=1"' in b)
+    assert _fill(unescape(pattern), "J=0,M=0,m1=1", "m2", "−1") == "\\langle 1\\,1;\\,1\\,-1\\vert 0\\,0\\rangle"
