@@ -2,7 +2,7 @@
 
 ``verify_site`` never trusts the site: it recomputes each value found in the
 data files (CSV, JSON and values.txt) with the engine and compares the exact
-text, the signed square and the decimal, then reports each problem with the
+text, the parts sign, p, q and the decimal, then reports each problem with the
 file and the value it concerns.
 """
 
