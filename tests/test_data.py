@@ -199,6 +199,8 @@ def test_json_is_valid_and_matches_csv(data: Data) -> None:
         assert doc["table"] == table.id and doc["family"] == table.family
         assert doc["arguments"] == HEADERS[table.family]
         assert doc["convention"] == data.plan.family(table.family).convention
+        if table.family in ("6j", "9j"):  # no phase choice of their own (Edmonds 1957, ch. 6)
+            assert "Condon" not in doc["convention"] and "No phase choice" in doc["convention"]
         assert doc["digits"] == data.recipe.digits
         assert doc["data_digest"] == data.meta.data_digest
         rows = _csv_rows(data, table)[1:]
