@@ -9,6 +9,8 @@ line, which imports this package first, pays only for what it runs.
 """
 
 __version__ = "0.1.0"
+#: The year this version was released: the year a citation of a build names (never the clock).
+RELEASE_YEAR = 2026
 
 # light (its functions import their modules on first call), and eager on purpose: the
 # function recoupling must win over the subpackage of the same name as an attribute
@@ -42,6 +44,7 @@ __all__ = [
     "TablegenError",
     "QuantumNumberError",
     "__version__",
+    "RELEASE_YEAR",
 ]
 
 

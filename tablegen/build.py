@@ -19,7 +19,7 @@ from dataclasses import dataclass
 from itertools import chain
 from typing import Callable, Iterable, Iterator
 
-from . import __version__
+from . import RELEASE_YEAR, __version__
 from .buildinfo import BuildMeta
 from .compute import ValueBook, compute_values
 from .errors import RecipeError
@@ -81,6 +81,7 @@ def render_outputs(plan: SitePlan, book: ValueBook) -> tuple[BuildMeta, Iterator
         recipe_toml=plan.recipe.toml_text(),
         title=plan.recipe.title,
         counts=family_counts(plan),
+        release_year=RELEASE_YEAR,
     )
     outputs = chain(
         render_html(plan, book, meta),

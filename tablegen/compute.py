@@ -3,8 +3,9 @@
 The result is a ValueBook: (kind key, doubled key) -> Shown, for each
 table's kind and for the companions its family record names (Racah W beside
 a 6j).  Shown carries the
-exact value and each text form the renderers print (exact text, signed
-square, decimal, LaTeX in the recipe's root style), so that renderers only format.
+exact value and each text form the renderers print (exact text, the parts
+sign, p, q of sign*sqrt(p/q), decimal, LaTeX in the recipe's style), so that
+renderers only format.
 Work is split into fixed chunks in plan order and reassembled in that order,
 so the result does not depend on how many processes ran.
 """
@@ -23,7 +24,7 @@ from .plan import SitePlan
 from .values import Surd
 
 __all__ = [
-    "Shown", "ValueBook", "compute_values", "wanted_keys", "show", "signed_square_text", "worker_count", "ComputeError",
+    "Shown", "ValueBook", "compute_values", "wanted_keys", "show", "worker_count", "ComputeError",
 ]
 
 #: Below this many values one process is faster than starting a pool.
@@ -37,7 +38,7 @@ class Shown:
 
     value: Surd
     exact: str
-    square: str
+    parts: tuple[int, int, int] | None  # (sign, p, q) of sign*sqrt(p/q), p/q reduced; None for a function
     decimal: str
     tex: str  # in the recipe's LaTeX style
     zero_rule: str = ""  # a zero value: the selection rule that makes it zero, "id: text" (kind's zero_rule)
@@ -55,34 +56,18 @@ class ComputeError(TablegenError):
 ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
 
 
-def signed_square_text(value: Surd) -> str:
-    """The data files' "square" column today: sign * p/q as one fraction text.
-
-    The one place that still writes it (for the site's CSV/JSON and verify);
-    to be replaced by explicit sign, p and q columns when the site's data
-    format changes.  Surd.squared() is the true square, p/q >= 0.
-    """
-    from .intmath import int_text
-
-    if not value.sign:
-        return "0"
-    text = f"{int_text(value.p)}/{int_text(value.q)}" if value.q != 1 else int_text(value.p)
-    return f"-{text}" if value.sign < 0 else text
-
-
 def show(value: Surd, digits: int, style: str, zero_rule: object = None) -> Shown:
     """All text forms of one value.
 
     A value that is a function (a rotation function d(beta) as a trigonometric
-    polynomial) has no single decimal and no rational square: those forms are
+    polynomial) has no single decimal and no parts sign, p, q: those forms are
     left empty, the exact text and the LaTeX are still written.
     """
-    squared = getattr(value, "squared", None)
     decimal = getattr(value, "decimal", None)
     return Shown(
         value=value,
         exact=str(value),
-        square=signed_square_text(value) if squared else "",
+        parts=(value.sign, value.p, value.q) if isinstance(value, Surd) else None,
         decimal=decimal(digits) if decimal else "",
         tex=value.latex(style),
         zero_rule=str(zero_rule) if zero_rule else "",

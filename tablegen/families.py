@@ -25,8 +25,9 @@ from .symmetry import ninej_members, sixj_tetrahedral_members
 __all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
            "ClassesLayout", "MatrixLayout"]
 
-#: Columns of every data row after the arguments.
-VALUE_COLUMNS = ("exact", "square", "decimal")
+#: Columns of every data row after the arguments: the exact text, then the value
+#: sign*sqrt(p/q) as its three integers (p/q reduced; zero is 0, 0, 1), then the decimal.
+VALUE_COLUMNS = ("exact", "sign", "p", "q", "decimal")
 
 
 @dataclass(frozen=True, slots=True)
@@ -118,8 +119,9 @@ FAMILIES: tuple[Family, ...] = (
         title="Wigner 6j symbols and Racah W",
         nav_label="6j & W",
         layout=ClassesLayout(class_size=24, filed_by=sixj_tetrahedral_members, has_partners=True),
-        convention="Condon–Shortley phase. W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f}. "
-        "All forms of a class (tetrahedral and Regge symmetries) are equal.",
+        convention="No phase choice of its own: once the Clebsch–Gordan phase is fixed, the recoupling of three "
+        "angular momenta fixes the 6j, sign included. W(a b c d; e f) = (−1)^(a+b+c+d) {a b e; d c f} "
+        "fixes the sign of W. All forms of a class (tetrahedral and Regge symmetries) are equal.",
         companions=(Companion("w", "Racah W", w_of_sixj),),
     ),
     Family(
@@ -128,7 +130,8 @@ FAMILIES: tuple[Family, ...] = (
         title="Wigner 9j symbols",
         nav_label="9j",
         layout=ClassesLayout(class_size=72, filed_by=ninej_members),
-        convention="Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
+        convention="No phase choice of its own: the recoupling of four angular momenta fixes it, sign included. "
+        "Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),
 )

@@ -9,7 +9,9 @@ Recipe file (TOML)::
     title = "Coupling tables for a shell-model exercise"
     notes = "Only the ranges needed for p and d shells."
     digits = 15                 # significant digits of the decimals (1..10000, limits.MAX_DIGITS)
-    latex_style = "root"        # "root": \\sqrt{\\frac{5}{14}}; "rational": \\frac{\\sqrt{70}}{14}
+    latex_style = "root"        # "root": \\sqrt{\\frac{5}{14}}; "rational": \\frac{\\sqrt{70}}{14};
+                                # "inline": \\sqrt{5/14}, for running text
+    decimals = true             # false: LaTeX tables without their decimal columns
 
     [cg]                        # <j1 m1; j2 m2 | J M> for min_j <= j1, j2 <= max_j
     max_j = 4
@@ -38,6 +40,7 @@ from .families import FAMILIES as _FAMILY_RECORDS
 from .families import FAMILY_KEYS
 from .limits import ENGINE_MAX_J, MAX_DIGITS, RECIPE_MAX_BYTES, VALUE_LIMIT
 from .spins import half_text, parse_j
+from .values.latex import LATEX_STYLES
 
 __all__ = [
     "FamilyRange",
@@ -54,10 +57,9 @@ __all__ = [
 #: Families in the order they appear everywhere (pages, data, digest): the family records' keys.
 FAMILIES = FAMILY_KEYS
 FAMILY_NAMES = {f.key: f.title for f in _FAMILY_RECORDS}
-LATEX_STYLES = ("root", "rational")
 MAX_TITLE = 200
 MAX_NOTES = 4000
-_TOP_KEYS = ("title", "notes", "digits", "latex_style") + FAMILIES
+_TOP_KEYS = ("title", "notes", "digits", "latex_style", "decimals") + FAMILIES
 _FAMILY_KEYS = ("max_j", "min_j")
 
 
@@ -83,6 +85,7 @@ class Recipe:
     digits: int = 15
     latex_style: str = "root"
     families: tuple[FamilyRange, ...] = field(default_factory=tuple)
+    decimals: bool = True  # LaTeX tables print a decimal beside each exact value
 
     def family(self, name: str) -> FamilyRange | None:
         for f in self.families:
@@ -97,6 +100,7 @@ class Recipe:
             "notes": self.notes,
             "digits": self.digits,
             "latex_style": self.latex_style,
+            "decimals": self.decimals,
         }
         for f in self.families:
             entry = {"max_j": half_text(f.max_tj)}
@@ -112,6 +116,7 @@ class Recipe:
             f"notes = {_toml_string(self.notes)}",
             f"digits = {self.digits}",
             f"latex_style = {_toml_string(self.latex_style)}",
+            f"decimals = {'true' if self.decimals else 'false'}",
         ]
         for f in self.families:
             lines += ["", f"[{f.family}]", f'max_j = "{half_text(f.max_tj)}"']
@@ -235,6 +240,10 @@ def recipe_from_mapping(data: dict, base: Recipe | None = None, names: dict | No
     style = data.get("latex_style", base.latex_style)
     if style not in LATEX_STYLES:
         raise RecipeError(names.get("latex_style", "latex_style"), style, f"must be one of {', '.join(LATEX_STYLES)}")
+    # -- the LaTeX decimal columns (journal output) --
+    decimals = data.get("decimals", base.decimals)
+    if not isinstance(decimals, bool):
+        raise RecipeError(names.get("decimals", "decimals"), decimals, "must be true or false")
 
     ranges = {f.family: f for f in base.families}
     for name in FAMILIES:
@@ -259,7 +268,7 @@ def recipe_from_mapping(data: dict, base: Recipe | None = None, names: dict | No
             )
         ranges[name] = FamilyRange(name, lo, hi)
     families = tuple(ranges[n] for n in FAMILIES if n in ranges)
-    return Recipe(title=title, notes=notes, digits=digits, latex_style=style, families=families)
+    return Recipe(title=title, notes=notes, digits=digits, latex_style=style, families=families, decimals=decimals)
 
 
 # -- command-line options ------------------------------------------------------

@@ -20,12 +20,21 @@ from pathlib import Path
 
 from . import symmetry
 from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments
-from .compute import signed_square_text
 from .errors import TablegenError
 from .notation import symbol_text
 from .recipe import MAX_DIGITS
 from .render.data import TABLE_FORMAT
 from .values import Surd
+
+
+def signed_square_text(value: Surd) -> str:
+    """The "square" column of sites made by tablegen 0.1.0: sign * p/q as one fraction text."""
+    from .intmath import int_text
+
+    if not value.sign:
+        return "0"
+    text = f"{int_text(value.p)}/{int_text(value.q)}" if value.q != 1 else int_text(value.p)
+    return f"-{text}" if value.sign < 0 else text
 
 __all__ = ["check_values"]
 
@@ -75,7 +84,9 @@ class _Checker:
             self.problem(f"{path}: not UTF-8 text (byte {exc.start})")
             return None
 
-    def value(self, where: str, family: str, args, exact, square, decimal) -> Surd | None:
+    def value(self, where: str, family: str, args, exact, written, decimal) -> Surd | None:
+        """``written``: the value's rational parts as the site wrote them, ("square", text) in sites of
+        0.1.0 (sign * p/q as one fraction) or ("parts", [sign, p, q]) since, or None."""
         self.report.values += 1
         try:
             t, value = self.engine.value(family, tuple(str(a) for a in args))
@@ -86,8 +97,14 @@ class _Checker:
         self._shown(value)
         if exact is not None and exact != str(value):
             self.problem(f"{where}: {name}: exact {_cut(exact)}, but the engine gives {_cut(str(value))}")
-        if square is not None and square != signed_square_text(value):
-            self.problem(f"{where}: {name}: square {_cut(square)}, but the engine gives {_cut(signed_square_text(value))}")
+        if written is not None:
+            form, got = written
+            want = signed_square_text(value) if form == "square" else [str(value.sign), str(value.p), str(value.q)]
+            if (got if form == "square" else [str(x) for x in got]) != want:
+                shown = got if form == "square" else " ".join(map(str, got))
+                wanted = want if form == "square" else " ".join(want)
+                self.problem(f"{where}: {name}: {'square' if form == 'square' else 'sign, p, q'} {_cut(shown)}, "
+                             f"but the engine gives {_cut(wanted)}")
         if decimal is not None and self.engine.digits is not None:
             want = value.decimal(self.engine.digits)
             if decimal != want:
@@ -145,11 +162,13 @@ class _Checker:
         rows = list(csv.reader(io.StringIO(text)))
         head = rows[0] if rows else []
         family = _family_of_columns(head)
-        if family is None or not {"exact", "square", "decimal"} <= set(head):
+        parts_columns = ("square",) if "square" in head else ("sign", "p", "q")
+        if family is None or not {"exact", "decimal", *parts_columns} <= set(head):
             self.problem(f"{path}: unrecognised header {','.join(head)[:60]}")
             return
         n = len(ARGUMENT_NAMES[family])
-        ie, iq, idec = head.index("exact"), head.index("square"), head.index("decimal")
+        ie, idec = head.index("exact"), head.index("decimal")
+        iparts = [head.index(c) for c in parts_columns]
         iw = head.index("w") if "w" in head else None
         iws = head.index("w_sign") if "w_sign" in head else None
         keys = []
@@ -158,7 +177,8 @@ class _Checker:
                 self.problem(f"{path} line {i}: {len(row)} fields, expected {len(head)}")
                 continue
             where = f"{path} line {i}"
-            value = self.value(where, family, row[:n], row[ie], row[iq], row[idec])
+            written = ("square", row[iparts[0]]) if len(iparts) == 1 else ("parts", [row[k] for k in iparts])
+            value = self.value(where, family, row[:n], row[ie], written, row[idec])
             if iw is not None and iws is not None:
                 self.sign_of(where, "w", value, row[iw], row[iws], "W")
                 self.in_tables.add(("w", tuple(row[iw].split(" "))))
@@ -188,13 +208,14 @@ class _Checker:
         for i, row in enumerate(rows, 1):
             where = f"{path} row {i}"
             try:
-                args, exact, square, decimal = row["args"], row["exact"], row["square"], row["decimal"]
+                args, exact, decimal = row["args"], row["exact"], row["decimal"]
+                written = ("square", row["square"]) if "square" in row else ("parts", [row["sign"], row["p"], row["q"]])
                 if not isinstance(args, list):
                     raise TypeError
             except (KeyError, TypeError):
-                self.problem(f"{where}: missing or malformed args/exact/square/decimal")
+                self.problem(f"{where}: missing or malformed args/exact/sign/p/q/decimal")
                 continue
-            value = self.value(where, family, args, exact, square, decimal)
+            value = self.value(where, family, args, exact, written, decimal)
             forms = row.get("forms", [])
             self.forms(where, family, args, value, forms if isinstance(forms, list) else [forms])
             w = row.get("w")

@@ -284,7 +284,7 @@ def test_copy_buttons_copy_the_latex(browser, site):
         w.open(table.page)
         cell = w.page.locator(f'td[id="{entry.anchor}"]')
         cell.hover()
-        cell.locator("button.cp").click()
+        cell.locator("button.cp").first.click()
         assert w.page.evaluate("navigator.clipboard.readText()") == book[("cg", entry.key)].tex
 
         for pair in (plan.table("cg-j1-1-j2-1"), table):  # every state |J M> of two pages
@@ -303,6 +303,50 @@ def test_copy_buttons_copy_the_latex(browser, site):
         w.open("cite.html")
         w.page.locator("pre.copy + button.cp").first.click()
         assert w.page.evaluate("navigator.clipboard.readText()").startswith("@misc{tablegen-cdcdcdcd,")
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+def _equation(kind_key: str, key: tuple[int, ...], book) -> str:
+    from tablegen.kinds import kind
+    from tablegen.render.latex import latex_symbol
+    from tablegen.spins import half_text
+
+    return f"{latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])} = {book[(kind_key, key)].tex}"
+
+
+def _copy_equation(w, cell) -> str:
+    button = cell.locator("button.cp", has_text="TeX =")
+    assert button.count() == 1
+    button.click()
+    return w.page.evaluate("navigator.clipboard.readText()")
+
+
+def test_every_kind_of_value_copies_symbol_equals_value(browser, site):
+    root, plan, book = site
+    w = Watched(browser, root, clipboard=True)
+    try:
+        # <1 1; 1/2 -1/2 | 3/2 1/2> = sqrt(1/3) (closed form for j2 = 1/2, Edmonds 1957, ch. 3)
+        table = plan.table("cg-j1-1-j2-0.5")
+        w.open(table.page)
+        cell = w.page.locator('td[id="J=3/2,M=1/2,m1=1"]')
+        assert _copy_equation(w, cell) == "\\langle 1\\,1;\\,1/2\\,-1/2\\vert 3/2\\,1/2\\rangle = \\sqrt{\\frac{1}{3}}"
+        for family_key in ("cg", "3j"):
+            for t in plan.tables_of(family_key)[-2:]:
+                w.open(t.page)
+                for entry in t.entries[:: max(1, len(t.entries) // 6)]:
+                    got = _copy_equation(w, w.page.locator(f'td[id="{entry.anchor}"]'))
+                    assert got == _equation(t.kind, entry.key, book), entry.anchor
+        for family_key in ("6j", "9j"):
+            t = plan.tables_of(family_key)[-1]
+            fam = plan.family(family_key)
+            w.open(t.page)
+            entry = t.entries[-1]
+            cells = w.page.locator(f'tr[id="{entry.anchor}"] td[data-t]')
+            assert _copy_equation(w, cells.nth(0)) == _equation(family_key, entry.key, book)
+            for i, c in enumerate(fam.companions, 1):  # the Racah W beside the 6j
+                assert _copy_equation(w, cells.nth(i)) == _equation(c.kind, c.mapping(entry.key)[0], book)
         assert w.problems == []
     finally:
         w.close()

@@ -128,3 +128,12 @@ def test_python_dash_m_entry_point(tmp_path: Path) -> None:
     assert done.returncode == 2
     assert done.stderr.count("\n") == 1 and "Traceback" not in done.stderr
     assert _manifest(out)["recipe"]["title"] == "Entry point"  # the failed run changed nothing
+
+
+def test_inline_latex_style_from_the_command_line(capsys, tmp_path: Path) -> None:
+    # <1/2 1/2; 1/2 -1/2 | 1 0> = sqrt(1/2) (the triplet M = 0 state, common practice, no source)
+    out = tmp_path / "site"
+    assert _run(capsys, "build", "--out", str(out), "--cg", "1/2", "--latex-style", "inline", "--quiet")[0] == 0
+    fragment = (out / "latex" / "cg-j1-0.5-j2-0.5.tex").read_text(encoding="utf-8")
+    assert "\\sqrt{1/2}" in fragment and "\\frac" not in fragment
+    assert _manifest(out)["recipe"]["latex_style"] == "inline"

@@ -12,6 +12,7 @@ import hashlib
 import io
 import json
 import re
+from math import gcd
 from decimal import ROUND_HALF_EVEN, Context, Decimal
 from fractions import Fraction
 from pathlib import Path
@@ -148,28 +149,33 @@ def test_csv_rows_match_engine_and_sympy(request, which: str) -> None:
     checked = 0
     for table in data.plan.tables:
         rows = _csv_rows(data, table)
-        assert rows[0] == HEADERS[table.family] + ["exact", "square", "decimal"] + EXTRA[table.family]
+        assert rows[0] == HEADERS[table.family] + ["exact", "sign", "p", "q", "decimal"] + EXTRA[table.family]
         assert len(rows) - 1 == len(table.entries), table.id
         n = len(HEADERS[table.family])
         for row, entry in zip(rows[1:], table.entries):
             assert len(row) == len(rows[0])
-            args, exact, square, decimal = row[:n], row[n], row[n + 1], row[n + 2]
+            args, exact, decimal = row[:n], row[n], row[n + 4]
+            sign, p, q = (int(x) for x in row[n + 1 : n + 4])
             assert [Fraction(a) * 2 for a in args] == list(entry.key)  # quantum numbers
             engine = DOUBLED[table.family](*entry.key)
             assert exact == str(engine)
             ref = _reference(table.family, args)
             assert (_parse_exact(exact) == _signed_square(ref)) if ref else exact == "0", (table.id, row)
-            assert Fraction(square) == _parse_exact(exact)  # signed square p/q
+            # the value is sign * sqrt(p/q), p/q in lowest terms (zero: 0, 0, 1)
+            assert sign in (-1, 0, 1) and p >= 0 and q >= 1 and gcd(p, q) == 1
+            assert sign * Fraction(p, q) == _parse_exact(exact)
+            if ref:
+                assert sign == int(sympy_sign(ref))
             _check_decimal(decimal, ref, digits)
             checked += 1
             if table.family == "6j":
-                forms, w_args, w_sign = row[n + 3 :]
+                forms, w_args, w_sign = row[n + 5 :]
                 assert int(forms) == len(entry.members)
                 # W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f} -- Edmonds 1957, §6.2
                 w_ref = racah(*[_q(x) for x in w_args.split()])
                 assert (_signed_square(w_ref) == int(w_sign) * _parse_exact(exact)) if w_ref else exact == "0"
             elif table.family == "9j":
-                assert int(row[n + 3]) == len(entry.members)
+                assert int(row[n + 5]) == len(entry.members)
     assert checked == sum(len(t.entries) for t in data.plan.tables) > 100
 
 
@@ -178,12 +184,12 @@ def test_a_few_values_by_hand(data: Data) -> None:
     rows = {tuple(r[:6]): r for r in _csv_rows(data, data.plan.table("cg-j1-1-j2-1"))[1:]}
     # <1 1; 1 -1 | 0 0> = 1/sqrt(3): |0 0> = (|1,-1> - |0,0> + |-1,1>)/sqrt(3) for two
     # spin-1 particles -- common practice, no source
-    assert rows[("1", "1", "1", "-1", "0", "0")][6:9] == ["sqrt(1/3)", "1/3", "0.577350269189626"]
+    assert rows[("1", "1", "1", "-1", "0", "0")][6:11] == ["sqrt(1/3)", "1", "1", "3", "0.577350269189626"]
     # <1 0; 1 0 | 1 0> = 0 by parity (j1 + j2 + J odd) -- Edmonds 1957, §3.7
-    assert rows[("1", "0", "1", "0", "1", "0")][6:9] == ["0", "0", "0"]
+    assert rows[("1", "0", "1", "0", "1", "0")][6:11] == ["0", "0", "0", "1", "0"]
     six = {tuple(r[:6]): r for t in data.plan.tables_of("6j") for r in _csv_rows(data, t)[1:]}
     # {1 1 1; 1 1 1} = 1/6 -- Edmonds 1957, Table 5, closed forms with one j = 1 (from memory)
-    assert six[("1", "1", "1", "1", "1", "1")][6:8] == ["1/6", "1/36"]
+    assert six[("1", "1", "1", "1", "1", "1")][6:10] == ["1/6", "1", "1", "36"]
 
 
 def test_json_is_valid_and_matches_csv(data: Data) -> None:
@@ -192,7 +198,9 @@ def test_json_is_valid_and_matches_csv(data: Data) -> None:
         assert doc["format"] == "tablegen-table/1"
         assert doc["table"] == table.id and doc["family"] == table.family
         assert doc["arguments"] == HEADERS[table.family]
-        assert doc["convention"] == "Condon-Shortley"
+        assert doc["convention"] == data.plan.family(table.family).convention
+        if table.family in ("6j", "9j"):  # no phase choice of their own (Edmonds 1957, ch. 6)
+            assert "Condon" not in doc["convention"] and "No phase choice" in doc["convention"]
         assert doc["digits"] == data.recipe.digits
         assert doc["data_digest"] == data.meta.data_digest
         rows = _csv_rows(data, table)[1:]
@@ -200,16 +208,18 @@ def test_json_is_valid_and_matches_csv(data: Data) -> None:
         assert len(doc["rows"]) == len(rows) == len(table.entries)
         for row, csv_row, entry in zip(doc["rows"], rows, table.entries):
             assert row["args"] == csv_row[:n]
-            assert [row["exact"], row["square"], row["decimal"]] == csv_row[n : n + 3]
+            assert [row["exact"], str(row["sign"]), str(row["p"]), str(row["q"]), row["decimal"]] == csv_row[n : n + 5]
+            assert all(type(row[k]) is int for k in ("sign", "p", "q"))
+            assert "square" not in row
             if table.family in ("6j", "9j"):
-                assert len(row["forms"]) == len(entry.members) == int(csv_row[n + 3])
+                assert len(row["forms"]) == len(entry.members) == int(csv_row[n + 5])
                 key_value = DOUBLED[table.family](*entry.key)
                 for form, sign in row["forms"]:
                     member = [int(Fraction(x) * 2) for x in form.split()]
                     # every listed form equals sign * this symbol (Regge 1958/1959 symmetries)
                     assert DOUBLED[table.family](*member) == key_value * sign
             if table.family == "6j":
-                assert row["w"] == {"args": csv_row[n + 4].split(), "sign": int(csv_row[n + 5])}
+                assert row["w"] == {"args": csv_row[n + 6].split(), "sign": int(csv_row[n + 7])}
             else:
                 assert "w" not in row
 

@@ -67,7 +67,7 @@ def test_companion_mapping_as_data_reproduces_the_mapping() -> None:
 
 
 def test_data_columns_follow_from_the_records() -> None:
-    assert family("cg").data_columns == ("j1", "m1", "j2", "m2", "J", "M", "exact", "square", "decimal")
+    assert family("cg").data_columns == ("j1", "m1", "j2", "m2", "J", "M", "exact", "sign", "p", "q", "decimal")
     assert family("6j").data_columns[-3:] == ("forms", "w", "w_sign")
     assert family("9j").data_columns[-1] == "forms"
 

@@ -140,3 +140,13 @@ def test_bad_input(args, argument):
     with pytest.raises(QuantumNumberError):
         spherical_y(1, 0, theta="x")
     assert SPHERICAL_Y.value(2, 1) == y2(4, 2)
+
+
+def test_inline_latex_of_harmonics_has_no_built_up_fractions():
+    # Y_0^0 = 1/sqrt(4 pi), Y_1^0 = sqrt(3/(4 pi)) cos(theta) (common practice, no source)
+    assert spherical_y(0, 0).latex("inline") == "\\sqrt{1/(4\\pi)}"
+    assert spherical_y(1, 0).latex("inline").startswith("\\sqrt{3/(4\\pi)}")
+    assert spherical_y(0, 0).latex("root") == "\\sqrt{\\frac{1}{4\\pi}}"  # the display style is unchanged
+    for l in range(0, 5):
+        for m in range(-l, l + 1):
+            assert "\\frac" not in spherical_y(l, m).latex("inline"), (l, m)

@@ -76,10 +76,11 @@ def test_latex_and_data_files(built):
     plan, book, files = built
     table = plan.tables[0]
     tex = files[table.tex].decode("utf-8")
-    assert tex.count("\\begin{longtable}") == len(table.sections)
+    # a tabular per block, for the author's table or table* (longtable stops two-column documents)
+    assert tex.count("\\begin{tabular}") == len(table.sections) and "longtable" not in tex
     assert "j_3 \\backslash j_6" in tex
     rows = list(csv.reader(io.StringIO(files[table.csv].decode("utf-8"))))
-    assert rows[0] == ["j1", "j2", "j3", "j4", "j5", "j6", "exact", "square", "decimal"]
+    assert rows[0] == ["j1", "j2", "j3", "j4", "j5", "j6", "exact", "sign", "p", "q", "decimal"]
     assert len(rows) - 1 == len(table.entries)
     data = json.loads(files[table.json])
     assert data["arguments"] == rows[0][:6]
@@ -140,7 +141,9 @@ def test_a_function_valued_family_renders_as_matrices(monkeypatch):
     assert '<td id="j=1;mp=0,m=0" data-t="\\cos \\beta"' in page
     assert "<mi>cos</mi>" in page
     rows = list(csv.reader(io.StringIO(files["data/d-j-1.csv"].decode("utf-8"))))
-    assert rows[0] == ["j", "mp", "m", "exact", "square", "decimal"] and len(rows) == 1 + 9
+    assert rows[0] == ["j", "mp", "m", "exact", "sign", "p", "q", "decimal"] and len(rows) == 1 + 9
+    # a function has no parts sign, p, q: those fields are empty
+    assert all(r[3:7] != ["", "", "", ""] and r[4:7] == ["", "", ""] for r in rows[1:])
     assert "\\cos \\beta" in files["latex/d-j-1.tex"].decode("utf-8")
 
 

@@ -195,8 +195,9 @@ def test_command_line_none_for_every_family_is_refused(capsys) -> None:
             latex_style="rational",
             families=(FamilyRange("3j", 1, 7), FamilyRange("9j", 2, 3)),
         ),
+        Recipe(title="print only", latex_style="inline", decimals=False, families=(FamilyRange("cg", 0, 2),)),
     ],
-    ids=["default", "empty", "awkward-text"],
+    ids=["default", "empty", "awkward-text", "inline-no-decimals"],
 )
 def test_toml_text_round_trip(tmp_path: Path, recipe: Recipe) -> None:
     path = _write(tmp_path, recipe.toml_text())
@@ -206,7 +207,7 @@ def test_toml_text_round_trip(tmp_path: Path, recipe: Recipe) -> None:
 def test_as_dict_matches_toml_text(tmp_path: Path) -> None:
     r = recipe_from_mapping({"title": "T", "3j": {"min_j": "1/2", "max_j": 2}})
     d = r.as_dict()
-    assert list(d) == ["title", "notes", "digits", "latex_style", "3j"]
+    assert list(d) == ["title", "notes", "digits", "latex_style", "decimals", "3j"]
     assert d["3j"] == {"max_j": "2", "min_j": "1/2"}
     assert recipe_from_mapping(d) == r
 
@@ -395,3 +396,16 @@ def test_control_characters_in_title_and_notes_are_refused(key: str, char: str) 
     message = str(info.value)
     assert f"recipe key {key} = " in message and "control character" in message
     assert all(c.isprintable() for c in message)  # the offending character is shown escaped
+
+
+def test_decimals_switch_defaults_on_and_takes_only_booleans() -> None:
+    # journal output: the LaTeX decimal columns can be dropped; common practice, no source
+    assert recipe_from_mapping({}).decimals is True
+    assert recipe_from_mapping({"decimals": False}).decimals is False
+    for bad in ("no", 0, 1, None):
+        with pytest.raises(RecipeError, match=r"decimals = .*must be true or false"):
+            recipe_from_mapping({"decimals": bad})
+
+
+def test_inline_latex_style_is_accepted() -> None:
+    assert recipe_from_mapping({"latex_style": "inline"}).latex_style == "inline"

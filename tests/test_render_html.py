@@ -336,8 +336,12 @@ def test_every_page_states_its_conventions_and_links_to_them(built):
     for page in plan.pages:
         text = files[page.path].decode("utf-8")
         assert 'conventions.html"' in text, page.path
-        if page.kind in ("cg", "3j", "6j"):
+        if page.kind in ("cg", "3j"):
             assert "Condon–Shortley" in text, page.path
+        if page.kind in ("6j", "9j"):
+            # the 6j and 9j involve no phase choice of their own once the CG phase is fixed
+            # (Edmonds 1957, ch. 6): their pages say so instead of naming a phase convention
+            assert "No phase choice of its own" in text and "Condon–Shortley phase" not in text, page.path
         if page.kind == "cg":
             assert "(−1)^(j1−j2+M) √(2J+1)" in text
         if page.kind == "6j":
@@ -468,3 +472,62 @@ def test_a_full_classes_or_grid_page_stays_under_two_megabytes(built):
         assert n1 > n0
         per_value = (b1 - b0) / (n1 - n0)  # a page's fixed part (header, prose) apart
         assert b0 + per_value * (limit - n0) < 2_000_000, (fam.key, per_value)
+
+
+# -- "symbol = value" in LaTeX -------------------------------------------------------------
+_TABLE = re.compile(r'<table [^>]*?data-e="([^"]*)"(?: data-note="([^"]*)")?>(.*?)</table>', re.S)
+_CELL = re.compile(r'<td id="([^"]+)" data-t="([^"]*)"[^>]*>(.*?)</td>', re.S)
+_OWN = re.compile(r'<tr id="([^"]+)">(.*?)</tr>', re.S)
+
+
+def _fill(pattern: str, cell_id: str, note_name: str | None, note: str | None) -> str:
+    """What site.js does: each @name@ from the cell's id (name=value pairs) or its corner note.
+
+    site.js then appends " = " and the cell's data-t.
+    """
+    values = dict(pair.split("=", 1) for pair in re.split(r"[,;]", cell_id) if "=" in pair)
+    if note_name and note is not None:
+        values[note_name] = note.replace("−", "-")
+    return re.sub(r"@([^@]+)@", lambda m: values[m.group(1)], pattern)
+
+
+def test_every_value_copies_as_symbol_equals_value(built):
+    # the LaTeX symbol comes from the kind's notation record; the value is the cell's own LaTeX
+    from html import unescape
+
+    from tablegen.kinds import kind
+    from tablegen.render.latex import latex_symbol
+    from tablegen.spins import half_text
+
+    _, plan, book, _, files = built
+
+    def expected(kind_key, key):
+        symbol = latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
+        return f"{symbol} = {book[(kind_key, key)].tex}"
+
+    checked = 0
+    for table in plan.tables:
+        text = files[table.page].decode("utf-8")
+        by_anchor = {e.anchor: e for e in table.entries}
+        fam = plan.family(table.family)
+        if fam.layout.name == "classes":
+            for row_id, body in _OWN.findall(text):
+                entry = by_anchor[unescape(row_id)]
+                own = [unescape(e) for e in re.findall(r'<td data-t="[^"]*" data-e="([^"]*)"', body)]
+                wanted = [expected(fam.kind, entry.key)]
+                wanted += [expected(c.kind, c.mapping(entry.key)[0]) for c in fam.companions]
+                assert own == wanted, (table.id, row_id)
+                checked += 1
+            continue
+        for pattern, note_name, body in _TABLE.findall(text):
+            for cell_id, tex, inner in _CELL.findall(body):
+                note = re.search(r"<var>(.*?)</var>", inner)
+                symbol = _fill(unescape(pattern), unescape(cell_id), note_name, note and note.group(1))
+                entry = by_anchor[unescape(cell_id)]
+                assert f"{symbol} = {unescape(tex)}" == expected(fam.kind, entry.key), (table.id, cell_id)
+                checked += 1
+    assert checked == sum(len(t.entries) for t in plan.tables)
+    # one by hand: <1 1; 1 -1 | 0 0> = 1/sqrt(3) (two spin 1 coupled to J = 0, common practice)
+    cg = files[plan.table("cg-j1-1-j2-1").page].decode("utf-8")
+    pattern = next(p for p, _, b in _TABLE.findall(cg) if 'id="J=0,M=0,m1=1"' in b)
+    assert _fill(unescape(pattern), "J=0,M=0,m1=1", "m2", "−1") == "\\langle 1\\,1;\\,1\\,-1\\vert 0\\,0\\rangle"

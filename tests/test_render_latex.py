@@ -59,21 +59,37 @@ def _text(files: dict[str, bytes], path: str) -> str:
     return files[path].decode("utf-8")
 
 
-# -- parsing a fragment's rows ---------------------------------------------------------
+# -- parsing a fragment's blocks ------------------------------------------------------
 def _doubled(text: str) -> int:
     """'3/2' -> 3, '-1' -> -2 (the inverse of half_text)."""
     return int(text[:-2]) if text.endswith("/2") else 2 * int(text)
 
 
+_TABULAR = re.compile(r"\\begin\{tabular\}\{.*?\}\n(.*?)\\end\{tabular\}", re.S)
+
+
+def _blocks(fragment: str) -> list[list[list[str]]]:
+    """Every tabular block as its parts between booktabs rules, each part a list of rows (without '\\\\')."""
+    assert "longtable" not in fragment
+    blocks = []
+    for body in _TABULAR.findall(fragment):
+        parts: list[list[str]] = []
+        lines = body.splitlines()
+        assert lines[0] == "\\toprule" and lines[-1] == "\\bottomrule", body
+        for line in lines[:-1]:
+            if line in ("\\toprule", "\\midrule"):
+                parts.append([])
+            elif not line.startswith("\\addlinespace"):
+                assert line.endswith("\\\\"), line
+                parts[-1].append(line[:-2])
+        blocks.append(parts)
+    assert blocks, "no tabular in the fragment"
+    return blocks
+
+
 def _rows(fragment: str) -> list[str]:
-    body = fragment.split("\\endlastfoot\n", 1)[1].split("\\end{longtable}", 1)[0]
-    rows = []
-    for line in body.splitlines():
-        if line.startswith(("\\midrule", "\\addlinespace")):
-            continue
-        assert line.endswith("\\\\"), line
-        rows.append(line[:-2])
-    return rows
+    """Classes layout: the data rows of every block, in order (each block repeats the header)."""
+    return [row for _, rows in _blocks(fragment) for row in rows]
 
 
 def _cells(row: str) -> list[str]:
@@ -90,6 +106,33 @@ def _symbol(cell: str) -> tuple[int, ...]:
     return tuple(_doubled(x.strip()) for line in inner.split("\\\\") for x in line.split("&"))
 
 
+_THIRD = re.compile(r"\\vert (\S+)\\,M\\rangle|\\begin\{pmatrix\}.*? & .*? & (\S+)\\\\ ")
+
+
+def _grid(fragment: str) -> dict[tuple[str, int, int, int], str]:
+    """Grid layout: {(part, doubled third j, doubled row projection, doubled m1): cell}.
+
+    part is "exact" or "decimal"; the third j is read from each block's title (the symbol
+    with the table's j's as numbers), rows and columns from the labels.
+    """
+    cells: dict[tuple[str, int, int, int], str] = {}
+    for parts in _blocks(fragment):
+        (title,), (header,), rows = parts
+        third = _THIRD.search(title)
+        assert third, title
+        tk = _doubled(third.group(1) or third.group(2))
+        part = "decimal" if "decimals" in title else "exact"
+        columns = [_doubled(c.strip()) for c in header.split(" & ")[1:]]
+        for row in rows:
+            label, *values = [c.strip() for c in row.split(" & ")]
+            assert len(values) == len(columns), row
+            for tm1, value in zip(columns, values):
+                key = (part, tk, _doubled(label), tm1)
+                assert key not in cells, key
+                cells[key] = value
+    return cells
+
+
 # -- what is written --------------------------------------------------------------------
 def test_fragment_and_sheet_per_table_then_one_booklet(small):
     plan, _, _, files, order = small
@@ -98,19 +141,37 @@ def test_fragment_and_sheet_per_table_then_one_booklet(small):
     assert all(p.startswith("latex/") for p in order)
 
 
-def test_cg_rows_match_every_entry_and_value(small):
+def _grid_check(plan, book, files, family: str, row_of, m1_of, third_of) -> int:
+    checked = 0
+    for table in plan.tables_of(family):
+        cells = _grid(_text(files, table.tex))
+        written = {k: v for k, v in cells.items() if v}
+        for entry in table.entries:
+            shown = book[(family, entry.key)]
+            place = (third_of(entry.key), row_of(entry.key), m1_of(entry.key))
+            assert cells[("exact",) + place] == shown.tex, (table.id, entry.key)
+            assert cells[("decimal",) + place] == shown.decimal, (table.id, entry.key)
+            checked += 1
+        # nothing is written but the entries (a blank cell has no value)
+        assert len(written) == 2 * len(table.entries), table.id
+    return checked
+
+
+def test_cg_matrices_hold_every_entry_and_value(small):
     plan, book, _, files, _ = small
-    for table in plan.tables_of("cg"):
-        rows = [_cells(r) for r in _rows(_text(files, table.tex))]
-        assert len(rows) == len(table.entries)
-        for cells, entry in zip(rows, table.entries):
-            tj1, tm1, tj2, tm2, tJ, tM = entry.key
-            assert [_doubled(c) for c in cells[:4]] == [tm1, tm2, tJ, tM]
-            shown = book[("cg", entry.key)]
-            assert cells[4:] == [shown.tex, shown.decimal]
+    # key (j1, m1, j2, m2, J, M): rows M, columns m1, one matrix per J
+    n = _grid_check(plan, book, files, "cg", lambda k: k[5], lambda k: k[1], lambda k: k[4])
+    assert n == sum(len(t.entries) for t in plan.tables_of("cg")) > 20
 
 
-def test_cg_rows_for_spin_half_follow_the_closed_form(small):
+def test_threej_matrices_hold_every_entry_and_value(small):
+    plan, book, _, files, _ = small
+    # key (j1, j2, j3, m1, m2, m3): rows m3, columns m1, one matrix per j3
+    n = _grid_check(plan, book, files, "3j", lambda k: k[5], lambda k: k[3], lambda k: k[2])
+    assert n == sum(len(t.entries) for t in plan.tables_of("3j")) > 20
+
+
+def test_cg_cells_for_spin_half_follow_the_closed_form(small):
     # Closed form for coupling j1 with 1/2, Condon-Shortley phase (Edmonds 1957,
     # ch. 3, table for j2 = 1/2; table number from memory):
     # <j1 M-1/2; 1/2 1/2 | j1+1/2 M> = +sqrt((j1+M+1/2)/(2j1+1)),
@@ -125,8 +186,11 @@ def test_cg_rows_for_spin_half_follow_the_closed_form(small):
         if tj2 != 1 or tj1 == 0:
             continue
         j1 = Fraction(tj1, 2)
-        for cells in map(_cells, _rows(_text(files, table.tex))):
-            m2, J, M = (Fraction(_doubled(c), 2) for c in cells[1:4])
+        for (part, tJ, tM, tm1), cell in _grid(_text(files, table.tex)).items():
+            if part != "exact" or not cell:
+                continue
+            J, M, m1 = Fraction(tJ, 2), Fraction(tM, 2), Fraction(tm1, 2)
+            m2 = M - m1  # the rule each matrix states in its title
             plus = (j1 + M + Fraction(1, 2)) / (2 * j1 + 1)
             minus = (j1 - M + Fraction(1, 2)) / (2 * j1 + 1)
             if J == j1 + Fraction(1, 2):
@@ -134,29 +198,32 @@ def test_cg_rows_for_spin_half_follow_the_closed_form(small):
             else:
                 square, sign = (minus, -1) if m2 > 0 else (plus, 1)
             expected = Surd(sign, square.numerator, square.denominator) if square else Surd(0)
-            assert cells[4] == expected.latex(style), (table.id, cells)
+            assert cell == expected.latex(style), (table.id, J, M, m1, cell)
             checked += 1
-    assert checked == 6 + 10  # every row of 1/2 x 1/2 and of 1 x 1/2
+    assert checked == 6 + 10  # every value of 1/2 x 1/2 and of 1 x 1/2
 
 
-def test_threej_rows_match_entries_and_j3_zero_closed_form(small):
+def test_threej_cells_for_j3_zero_follow_the_closed_form(small):
     # (j j 0; m -m 0) = (-1)^(j-m) / sqrt(2j+1)   (Edmonds 1957, §3.7; equation from memory)
-    plan, book, _, files, _ = small
+    plan, _, _, files, _ = small
     style = plan.recipe.latex_style
-    zero_rows = 0
+    zero = 0
     for table in plan.tables_of("3j"):
-        rows = [_cells(r) for r in _rows(_text(files, table.tex))]
-        assert len(rows) == len(table.entries)
-        for cells, entry in zip(rows, table.entries):
-            tj1, tj2, tj3, tm1, tm2, tm3 = entry.key
-            assert [_doubled(c) for c in cells[:4]] == [tj3, tm1, tm2, tm3]
-            shown = book[("3j", entry.key)]
-            assert cells[4:] == [shown.tex, shown.decimal]
-            if tj3 == 0:
+        tj1 = table.param("j1")
+        for (part, tj3, tm3, tm1), cell in _grid(_text(files, table.tex)).items():
+            if part == "exact" and tj3 == 0 and cell:
+                assert tm3 == 0
                 sign = -1 if ((tj1 - tm1) // 2) % 2 else 1
-                assert cells[4] == Surd(sign, 1, tj1 + 1).latex(style)
-                zero_rows += 1
-    assert zero_rows == 1 + 2 + 3  # j = 0, 1/2, 1
+                assert cell == Surd(sign, 1, tj1 + 1).latex(style)
+                zero += 1
+    assert zero == 1 + 2 + 3  # j = 0, 1/2, 1
+
+
+def test_grid_matrix_titles_state_the_left_out_projection(small):
+    plan, _, _, files, _ = small
+    # m1 + m2 = M for CG, m1 + m2 + m3 = 0 for 3j (Edmonds 1957, ch. 3)
+    assert "$m_2 = M - m_1$" in _text(files, plan.tables_of("cg")[3].tex)
+    assert "$m_2 = -m_3 - m_1$" in _text(files, plan.tables_of("3j")[3].tex)
 
 
 def test_sixj_rows_give_the_racah_w_they_equal(small):
@@ -189,17 +256,56 @@ def test_ninej_rows_match_entries(small):
             assert cells[1:] == [shown.tex, shown.decimal, str(len(entry.members))]
 
 
+def test_long_classes_tables_come_in_blocks_with_their_header(default_files):
+    # a tabular cannot break across pages: a long table is a run of blocks, each
+    # under a page tall (common practice, no source)
+    plan, files = default_files
+    longest = max(plan.tables_of("6j"), key=lambda t: len(t.entries))
+    blocks = _blocks(_text(files, longest.tex))
+    assert len(blocks) > 1
+    assert all(len(rows) <= 24 for _, rows in blocks)
+    assert len({tuple(head) for head, _ in blocks}) == 1  # the same header on every block
+    assert sum(len(rows) for _, rows in blocks) == len(longest.entries)
+
+
+def test_no_decimals_drops_every_decimal():
+    recipe = recipe_from_mapping({"decimals": False, "latex_style": "inline", **SMALL})
+    plan, book, _, files, _ = _render(recipe)
+    for table in plan.tables:
+        text = _text(files, table.tex)
+        for entry in table.entries:
+            shown = book[(table.kind, entry.key)]
+            if "." in shown.decimal:
+                assert shown.decimal not in text, (table.id, shown.decimal)
+        assert "decimal" not in text, table.id
+    cg = _grid(_text(files, plan.tables_of("cg")[4].tex))
+    assert cg and {part for part, *_ in cg} == {"exact"}
+    sixj = [_cells(r) for r in _rows(_text(files, plan.tables_of("6j")[-1].tex))]
+    assert all(len(c) == 4 for c in sixj)  # symbol, value, forms, W
+    # the inline style: no built-up fractions (a root over a slashed fraction)
+    assert not any("\\frac" in _text(files, t.tex) for t in plan.tables)
+    assert any("\\sqrt{1/2}" in _text(files, t.tex) for t in plan.tables)
+
+
 def test_fragment_opens_with_packages_and_conventions(small):
     plan, _, meta, files, _ = small
     for table in plan.tables:
         text = _text(files, table.tex)
-        head = text.split("\\begingroup", 1)[0]
+        head = text.split("\\noindent", 1)[0]
         assert all(line.startswith("%") for line in head.splitlines()), table.id
+        assert head.isascii(), table.id
         assert f"% Needs in the preamble: \\usepackage{{{','.join(FRAGMENT_PACKAGES)}}}" in head
-        assert "Condon-Shortley" in head
-        assert "(-1)^(j1-j2+M) sqrt(2J+1) (j1 j2 J; m1 m2 -M)" in head
-        assert "W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f}" in head
+        assert "table or table* environment" in head
         assert meta.data_digest in head
+        # each fragment states its own family's convention (no phase named where none is chosen)
+        if table.family in ("cg", "3j"):
+            assert "Condon-Shortley" in head
+        if table.family == "cg":
+            assert "(-1)^(j1-j2+M) sqrt(2J+1) (j1 j2 J; m1 m2 -M)" in head
+        if table.family in ("6j", "9j"):
+            assert "No phase choice of its own" in head and "Condon-Shortley" not in head
+        if table.family == "6j":
+            assert "W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f}" in head
         assert not any(line.startswith("\\usepackage") for line in text.splitlines())
 
 
@@ -208,7 +314,8 @@ def test_sheets_and_booklet_state_conventions_and_build_facts(small):
     documents = [t.tex_sheet for t in plan.tables] + [plan.booklet]
     for path in documents:
         text = _text(files, path)
-        assert "Condon--Shortley phase" in text
+        assert "3j symbols follow the Condon--Shortley\nphase convention" in text
+        assert "The 6j and 9j symbols have\nno phase choice of their own" in text
         assert "(-1)^{j_1-j_2+M}\\sqrt{2J+1}" in text
         assert "W(a\\,b\\,c\\,d;\\,e\\,f) = (-1)^{a+b+c+d}" in text
         assert "rows in the order written" in text
@@ -222,9 +329,9 @@ def test_sheets_and_booklet_input_fragments_instead_of_copying(small):
     for table in plan.tables:
         name = table.tex.rsplit("/", 1)[1]
         sheet = _text(files, table.tex_sheet)
-        assert f"\\input{{{name}}}" in sheet and "longtable}{" not in sheet
+        assert f"\\input{{{name}}}" in sheet and "\\toprule" not in sheet
         assert f"\\input{{{name}}}" in booklet
-    assert "longtable}{" not in booklet
+    assert "\\toprule" not in booklet
 
 
 def test_only_allowed_packages(small):
@@ -333,32 +440,67 @@ def _pdf_text(pdf: Path) -> str:
     return unicodedata.normalize("NFC", out)  # accents come out as combining marks
 
 
+def _manuscript(plan, files: dict[str, bytes]) -> str:
+    """A two-column article that inputs a fragment of every family, each in the author's own float.
+
+    longtable stops a two-column document ("longtable not in 1-column mode"), so
+    this compiles only with fragments made of tabulars.  The widest go in table*
+    (both columns), a small one in a one-column table.
+    """
+    fragment_head = _text(files, plan.tables[0].tex)
+    packages = re.search(r"Needs in the preamble: (\\usepackage\{[^}]*\})", fragment_head).group(1)
+    picks = [next(t for t in plan.tables_of(f.key) if len(t.entries) > 3) for f in plan.families]
+    narrow = next(t for t in plan.tables_of(plan.families[0].key) if len(t.entries) <= 4)
+    body = ""
+    for t, env in [(t, "table*") for t in picks] + [(narrow, "table")]:
+        name = t.tex.rsplit("/", 1)[1]
+        body += (f"\\begin{{{env}}}\\centering\n\\input{{{name}}}\n"
+                 f"\\caption{{The author's caption for {t.id}.}}\\label{{tab:{t.id}}}\n\\end{{{env}}}\n")
+    return (
+        "\\documentclass[twocolumn]{article}\n" + packages + "\n\\begin{document}\nText before.\n" + body
+        + "See Table~\\ref{tab:" + picks[0].id + "}.\n\\end{document}\n"
+    )
+
+
 @pytest.fixture(scope="module")
 def compiled(small, tmp_path_factory):
-    """Every sheet and the booklet of the small build, plus a manuscript that inputs fragments."""
+    """Every sheet and the booklet of the small build, plus a two-column manuscript that inputs fragments."""
     _tool("pdflatex", "texlive-latex-recommended")
     plan, _, _, files, _ = small
     root = tmp_path_factory.mktemp("latex-small")
     folder = _write(files, root)
-    fragment_head = _text(files, plan.tables[0].tex)
-    packages = re.search(r"Needs in the preamble: (\\usepackage\{[^}]*\})", fragment_head).group(1)
-    picks = [next(t for t in plan.tables_of(f) if len(t.entries) > 3) for f in ("cg", "3j", "6j", "9j")]
-    (folder / "manuscript.tex").write_text(
-        "\\documentclass{article}\n" + packages + "\n\\begin{document}\nText before.\n"
-        + "".join(f"\\input{{{t.tex.rsplit('/', 1)[1]}}}\n" for t in picks)
-        + "See Table~\\ref{tablegen:" + picks[0].id + "}.\n\\end{document}\n"
-    )
+    (folder / "manuscript.tex").write_text(_manuscript(plan, files))
     names = [p.rsplit("/", 1)[1] for p in files if p.endswith("-sheet.tex")]
     names += [plan.booklet.rsplit("/", 1)[1], "manuscript.tex"]
     booklet = plan.booklet.rsplit("/", 1)[1]
     with ThreadPoolExecutor(2) as pool:
-        pdfs = list(pool.map(lambda n: _compile(folder, n, root / "texmf-var", 1 + (n == booklet)), names))
+        pdfs = list(pool.map(lambda n: _compile(folder, n, root / "texmf-var", 1 + (n in (booklet, "manuscript.tex"))),
+                             names))
     return dict(zip(names, pdfs))
+
+
+def test_two_column_manuscript_without_decimals_in_inline_style_compiles(tmp_path):
+    plan, _, _, files, _ = _render(recipe_from_mapping({"decimals": False, "latex_style": "inline", **SMALL}))
+    folder = _write(files, tmp_path)
+    (folder / "manuscript.tex").write_text(_manuscript(plan, files))
+    pdf = _compile(folder, "manuscript.tex", tmp_path / "texmf-var", 2)
+    text = _pdf_text(pdf)
+    assert "caption for cg-" in text and "Table 1" in text
+    assert "0.57735" not in text  # no decimals printed
 
 
 def test_every_sheet_booklet_and_manuscript_compiles(small, compiled):
     plan = small[0]
     assert len(compiled) == len(plan.tables) + 2
+
+
+def test_two_column_manuscript_prints_every_family_in_its_floats(small, compiled):
+    plan = small[0]
+    text = _pdf_text(compiled["manuscript.tex"])
+    for fam in plan.families:
+        assert f"caption for {fam.key}-" in text, fam.key
+    # <1 0; 1/2 1/2 | 1/2 1/2> = -sqrt(1/3) = -0.577350269189626 (closed form above), in the cg float
+    assert "−0.577350269189626" in text
 
 
 def test_booklet_prints_title_literally_and_values(small, compiled):
@@ -372,7 +514,9 @@ def test_booklet_prints_title_literally_and_values(small, compiled):
     assert "@misc{tablegen-5e5e5e5e," in text  # the BibTeX block, braces and all
     # <1 0; 1/2 1/2 | 1/2 1/2> = -sqrt(1/3) = -0.577350269189626  (closed form above)
     assert "−0.577350269189626" in text
-    assert len(set(re.findall(r"Table (\d+): ", text))) == len(plan.tables)
+    # one numbered subsection per table, listed in the contents
+    toc = compiled["booklet.tex"].with_suffix(".toc").read_text()
+    assert toc.count("\\contentsline {subsection}") == len(plan.tables)
 
 
 def test_sheet_prints_its_table(compiled):
@@ -385,6 +529,7 @@ def test_default_booklet_compiles(default_files, tmp_path):
     _tool("pdflatex", "texlive-latex-recommended")
     plan, files = default_files
     folder = _write(files, tmp_path)
-    pdf = _compile(folder, "booklet.tex", tmp_path / "texmf-var")
-    text = _pdf_text(pdf)
-    assert len(set(re.findall(r"Table (\d+): ", text))) == len(plan.tables)
+    pdf = _compile(folder, "booklet.tex", tmp_path / "texmf-var", 2)
+    toc = pdf.with_suffix(".toc").read_text()
+    assert toc.count("\\contentsline {subsection}") == len(plan.tables)
+    assert "\\contentsline {subsection}" in toc and "largest $j = 4$" in toc

@@ -374,3 +374,15 @@ def test_values_at_a_rational_cosine_with_phases_in_radians():
     text = spherical_y(3, -2, cos_theta=F(-1, 4), phi=F(7, 10), digits=30)
     ref = sympy.Ynm(3, -2, sympy.acos(sympy.Rational(-1, 4)), sympy.Rational(7, 10)).expand(func=True)
     assert abs(sympy.N(sympy.sympify(text) - ref, 40)) < sympy.Float(10) ** -28
+
+
+def test_inline_latex_of_rotation_functions_has_no_built_up_fractions():
+    # d^1_{11} = (1 + cos beta)/2, d^{1/2}_{1/2 1/2} = cos(beta/2) (Edmonds 1957, table 4.1 -- from memory)
+    assert rotation_d(1, 1, 1).latex("inline") == "(\\cos \\beta + 1)/2"
+    assert rotation_d("1/2", "1/2", "1/2").latex("inline") == "\\cos(\\beta/2)"
+    assert rotation_d(1, 1, 1).latex("root") == "\\frac{\\cos \\beta + 1}{2}"  # the display style is unchanged
+    for tj in range(0, 7):
+        for tmp in range(-tj, tj + 1, 2):
+            for tm in range(-tj, tj + 1, 2):
+                f = rotation_d(F(tj, 2), F(tmp, 2), F(tm, 2))
+                assert "\\frac" not in f.latex("inline"), (tj, tmp, tm)

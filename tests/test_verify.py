@@ -81,9 +81,13 @@ def test_fresh_build_verifies(capsys, built: Path) -> None:
 CHANGES = [
     # (file, old text, new text, words every matching problem must carry)
     ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),", "1,1,1,-1,0,0,sqrt(1/5),", ["<1 1; 1 -1 | 0 0>", "exact"]),
-    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626",
-     "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
-    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1/3,", "1,1,1,-1,0,0,sqrt(1/3),1/2,", ["<1 1; 1 -1 | 0 0>", "square"]),
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189626",
+     "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,", "1,1,1,-1,0,0,sqrt(1/3),1,1,2,", ["<1 1; 1 -1 | 0 0>", "q: "]),
+    ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,", "1,1,1,-1,0,0,sqrt(1/3),-1,1,3,", ["<1 1; 1 -1 | 0 0>", "sign: "]),
+    ("data/6j-j1-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6","sign":1,"p":1,"q":36',
+     '"args":["1","1","1","1","1","1"],"exact":"1/6","sign":1,"p":1,"q":35',
+     ["{1 1 1; 1 1 1}", "q"]),
     ("data/6j-j1-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6"',
      '"args":["1","1","1","1","1","1"],"exact":"1/7"', ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\n6j 1 1 1 1 1 1 1/6\n", "\n6j 1 1 1 1 1 1 1/9\n", ["{1 1 1; 1 1 1}", "exact"]),
@@ -211,7 +215,7 @@ def test_a_deleted_table_row_is_noticed_even_when_resealed(capsys, site: Path) -
     # J = 0 state of two spin-1 particles (Condon & Shortley 1935, from memory).
     csv_path = site / "data" / "cg-j1-1-j2-1.csv"
     lines = csv_path.read_text(encoding="utf-8").splitlines(keepends=True)
-    row = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
+    row = "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189626\n"
     assert row in lines
     csv_path.write_text("".join(line for line in lines if line != row), encoding="utf-8")
     _reseal(site, "data/cg-j1-1-j2-1.csv")
@@ -251,8 +255,8 @@ def _edit_manifest(site: Path, change) -> None:
 
 # {1 1 1; 1 1/2 1/2} = 1/6 and its W (Edmonds 1957, Table 5; from memory) sit in 6j-j1-1;
 # <1 1; 1 -1 | 0 0> = 1/sqrt(3) (common practice, no source) in cg-j1-1-j2-1.
-_ROW_6J = "1,1/2,1/2,1,1/2,1/2,1/6,1/36,0.166666666666667,3,1 1/2 1/2 1 1/2 1/2,-1\n"
-_ROW_CG = "1,1,1,-1,0,0,sqrt(1/3),1/3,0.577350269189626\n"
+_ROW_6J = "1,1/2,1/2,1,1/2,1/2,1/6,1,1,36,0.166666666666667,3,1 1/2 1/2 1 1/2 1/2,-1\n"
+_ROW_CG = "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189626\n"
 
 
 def _delete_row_everywhere(site: Path) -> None:

@@ -92,6 +92,29 @@
     return out;
   }
 
+  // "symbol = value" in LaTeX for a value.  A classes row gives the whole text (data-e on
+  // the cell); a grid or matrix table gives its symbol with @name@ for each argument that
+  // a cell's id (name=value pairs) or its corner note (the table's data-note) supplies.
+  function equationLatex(el) {
+    var own = el.getAttribute("data-e");
+    if (own) return own;
+    var table = el.closest("table[data-e]");
+    if (!table || !el.id) return null;
+    var values = {}, pairs = el.id.split(/[,;]/), i, kv;
+    for (i = 0; i < pairs.length; i++) {
+      kv = pairs[i].split("=");
+      if (kv.length === 2) values[kv[0]] = kv[1];
+    }
+    var note = table.getAttribute("data-note"), v = el.querySelector("var");
+    if (note && v) values[note] = v.textContent.replace(/\u2212/g, "-");
+    var missing = false;
+    var symbol = table.getAttribute("data-e").replace(/@([^@]+)@/g, function (all, name) {
+      if (!(name in values)) missing = true;
+      return values[name];
+    });
+    return missing ? null : symbol + " = " + el.getAttribute("data-t");
+  }
+
   function addCopyButtons() {
     var i, el, nodes = doc.querySelectorAll("[data-t]");
     for (i = 0; i < nodes.length; i++) {
@@ -102,6 +125,13 @@
       var b = copyButton(isCode ? "Copy" : "TeX", isCode ? "Copy" : "Copy LaTeX: " + tex,
         (function (t) { return function () { return t; }; })(tex));
       if (isCode) el.parentNode.appendChild(b); else el.appendChild(b);
+      var eq = isCode ? null : equationLatex(el);
+      if (eq) {
+        b = copyButton("TeX =", "Copy LaTeX of symbol = value: " + eq,
+          (function (t) { return function () { return t; }; })(eq));
+        b.classList.add("eq");
+        el.appendChild(b);
+      }
     }
     nodes = doc.querySelectorAll(".kets li[id]");
     for (i = 0; i < nodes.length; i++) {

@@ -36,7 +36,7 @@ def add_arguments(parser) -> None:
     for f in FAMILIES:
         parser.add_argument(f"--{f.key}", metavar="RANGE", dest=f"range_{f.key}", help=f"range of j for {f.title}")
     parser.add_argument("--digits", metavar="N", help=f"significant digits of the decimals, 1 to {MAX_DIGITS:,}")
-    parser.add_argument("--latex-style", metavar="STYLE", help="LaTeX root style: root or rational")
+    parser.add_argument("--latex-style", metavar="STYLE", help="LaTeX style of the values: root, rational or inline")
     parser.add_argument("--title", help="title of the build (no control characters)")
     parser.add_argument("--notes", help="notes shown on the index page")
     parser.add_argument("--jobs", metavar="N", help=f"processes for computing, 1 to {MAX_JOBS} (default: all cores)")

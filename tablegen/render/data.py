@@ -15,7 +15,7 @@ import json
 from typing import Iterator
 
 from ..buildinfo import BuildMeta, bibtex
-from ..compute import ValueBook
+from ..compute import Shown, ValueBook
 from ..families import Family
 from ..kinds import KIND_KEYS
 from ..plan import SitePlan, Table
@@ -42,11 +42,16 @@ def canonical_values(book: ValueBook) -> bytes:
     return (VALUES_HEADER + "".join(lines)).encode("utf-8")
 
 
+def _parts_text(shown: Shown) -> list[str]:
+    """sign, p and q of sign*sqrt(p/q) as CSV fields (empty for a value that is a function)."""
+    return [str(x) for x in shown.parts] if shown.parts else ["", "", ""]
+
+
 def _rows(table: Table, fam: Family, book: ValueBook) -> Iterator[list[str]]:
     """CSV rows in the order of ``fam.data_columns``."""
     for entry in table.entries:
         shown = book[(table.kind, entry.key)]
-        row = [half_text(x) for x in entry.key] + [shown.exact, shown.square, shown.decimal]
+        row = [half_text(x) for x in entry.key] + [shown.exact, *_parts_text(shown), shown.decimal]
         if entry.forms:
             row.append(str(entry.forms))
         for c in fam.companions:
@@ -70,7 +75,7 @@ def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: i
         "table": table.id,
         "family": table.family,
         "title": table.title,
-        "convention": "Condon-Shortley",
+        "convention": fam.convention,
         "digits": digits,
         "arguments": list(fam.kind_record.arguments),
         "data_digest": meta.data_digest,
@@ -81,7 +86,7 @@ def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: i
         row = {
             "args": [half_text(x) for x in entry.key],
             "exact": shown.exact,
-            "square": shown.square,
+            **dict(zip(("sign", "p", "q"), shown.parts or (None, None, None))),
             "decimal": shown.decimal,
         }
         if entry.forms:

@@ -19,6 +19,7 @@ from ..kinds import kind
 from ..sitemodel import Entry, Page, Section
 from ..spins import half_text
 from . import mathml
+from .latex import latex_symbol
 from .links import relative_url
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -74,6 +75,7 @@ class Companion:
     math: Markup
     tex: str
     negative: bool
+    tex_eq: str = ""  # "symbol = value" in LaTeX
 
 
 @dataclass(frozen=True)
@@ -92,6 +94,24 @@ class ClassRow:
     why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
     partners: tuple[tuple[str, str], ...] = ()  # (symbol text, link) of each Regge partner on the site
     beyond: int = 0  # forms of the same value with a j beyond the range (not on the site)
+    tex_eq: str = ""  # "symbol = value" in LaTeX
+
+
+def _tex_equation(kind_key: str, key: tuple[int, ...], tex: str) -> str:
+    """'symbol = value' in LaTeX, the symbol from the kind's notation."""
+    return f"{latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])} = {tex}"
+
+
+def _tex_symbol_pattern(fam: Family, given: tuple[tuple[str, int], ...]) -> str:
+    """The family's symbol in LaTeX, the ``given`` arguments as numbers and every other one as @name@.
+
+    A grid or matrix table carries it (data-e); site.js fills each @name@ from a
+    cell's id (name=value pairs) and its corner note, so that every cell copies as
+    "symbol = value" without the symbol written out once per cell.
+    """
+    known = dict(given)
+    k = fam.kind_record
+    return latex_symbol(k.notation, [half_text(known[a]) if a in known else f"@{a}@" for a in k.arguments])
 
 
 def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell:
@@ -146,6 +166,7 @@ def _grid_page(site: "_Site", page: Page) -> bytes:
             "value": _qn(s.params[0][1]),
             "columns": [_qn(c) for c in s.columns],
             "rows": _grid_rows(site, page, fam, s),
+            "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params),
         }
         for s in table.sections
     ]
@@ -194,7 +215,7 @@ def _class_row(site: "_Site", page: Page, fam: Family, entry: Entry) -> ClassRow
         args, sign = c.mapping(entry.key)
         other = site.shown(c.kind, args)
         math = mathml.equation(mathml.symbol(kind(c.kind).notation, args), mathml.value_inner(other.tex))
-        companions.append(Companion(Markup(math), other.tex, sign < 0))
+        companions.append(Companion(Markup(math), other.tex, sign < 0, _tex_equation(c.kind, args, other.tex)))
     forms = fam.layout.filed_by(*entry.key)  # the class: signs relative to its canonical form, the key
     left, right = k.notation.brackets or "{}"
     partners = tuple(
@@ -214,6 +235,7 @@ def _class_row(site: "_Site", page: Page, fam: Family, entry: Entry) -> ClassRow
         why=s.zero_rule,
         partners=partners,
         beyond=entry.beyond,
+        tex_eq=_tex_equation(fam.kind, entry.key, s.tex),
     )
 
 
@@ -292,7 +314,8 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
         for r, tr in enumerate(s.rows):
             cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
             rows.append(Row(label=_qn(tr), anchor=s.row_anchors[r], cells=cells))
-        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns], "rows": rows})
+        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns], "rows": rows,
+                         "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params)})
     return site.render(
         "matrix.html",
         page,

@@ -1,8 +1,13 @@
 """LaTeX output: per table a fragment and a standalone sheet, and one booklet.
 
-A fragment is the table alone (a ``longtable``), to ``\\input`` into a
-manuscript; it opens with a comment naming the packages it needs and the
-conventions.  A sheet is a small document that prints the conventions and the
+A fragment is the table alone, to ``\\input`` into a manuscript inside the
+author's own ``table`` or ``table*``: a sequence of ``tabular`` blocks with
+booktabs rules (a matrix per third j for the grid layout, a matrix per block
+for the matrix layout, runs of rows for the classes layout), so it works in
+two-column documents, where ``longtable`` stops.  Each block is at most about a
+page tall, so outside a float the table still runs over as many pages as it
+needs.  It opens with a comment naming the packages it needs and the
+convention.  A sheet is a small document that prints the conventions and the
 build facts and ``\\input``s its fragment (they sit side by side in latex/);
 the booklet does the same for every table, so no table is written twice.
 
@@ -27,7 +32,17 @@ from ..spins import half_text
 __all__ = ["render_latex", "FRAGMENT_PACKAGES", "tex_text", "tt_text", "pdf_text", "latex_symbol"]
 
 #: What a fragment needs in the manuscript's preamble (named in its head comment).
-FRAGMENT_PACKAGES = ("amsmath", "array", "booktabs", "longtable")
+FRAGMENT_PACKAGES = ("amsmath", "array", "booktabs")
+
+#: Printed lines in one block of the classes layout (a symbol of n rows takes n lines):
+#: a block stays shorter than a page, so that the blocks can break between pages.
+BLOCK_LINES = 48
+#: Decimal matrices take at most this many characters of digits per printed line
+#: (footnotesize on a page, or across both columns with table*).
+DECIMAL_LINE_CHARS = 84
+
+# Plain-text forms of the symbols a family's convention line uses, for the ASCII head comment.
+_ASCII = str.maketrans({"−": "-", "⟨": "<", "⟩": ">", "–": "-", "—": "-", "⊗": "x"})
 
 # Characters beyond ASCII that pdflatex prints with its default (OT1) fonts and
 # UTF-8 input, without font substitutions; anything else in user text is
@@ -159,17 +174,47 @@ class _Helpers:
     def section_params(self, section: Section) -> str:
         return self._params(section.params, None, True)
 
+    @staticmethod
+    def plain_convention(fam: Family) -> str:
+        """The family's convention line in ASCII, for a comment."""
+        return fam.convention.translate(_ASCII).replace("√", "sqrt")
+
+    @staticmethod
+    def m_rule(layout, tex: bool) -> str:
+        """The projection a grid leaves out: 'm_2 = M - m_1' (CG), 'm_2 = -m_3 - m_1' (3j)."""
+        row = qn_tex(layout.row) if tex else layout.row
+        m1, m2 = ("m_1", "m_2") if tex else ("m1", "m2")
+        return f"{m2} = {'' if layout.m_sum_sign > 0 else '-'}{row} - {m1}"
+
+    def decimal_blocks(self, section: Section) -> list[tuple[list[tuple[int, int]], list[int]]]:
+        """A grid section's decimal matrix in parts narrow enough to print.
+
+        Each part is (its columns as (position, m1), the row positions with a value
+        in those columns); the columns are shared out evenly between the parts.
+        """
+        per_line = max(1, DECIMAL_LINE_CHARS // (self.plan.recipe.digits + 6))
+        cols = list(enumerate(section.columns))
+        parts = -(-len(cols) // per_line)
+        size = -(-len(cols) // parts)
+        out = []
+        for i in range(0, len(cols), size):
+            chunk = cols[i : i + size]
+            rows = [r for r, line in enumerate(section.grid) if any(line[c] is not None for c, _ in chunk)]
+            out.append((chunk, rows))
+        return out
+
+    @staticmethod
+    def row_blocks(fam: Family, entries: tuple[Entry, ...]) -> list[tuple[Entry, ...]]:
+        """Runs of rows of a classes table, each at most BLOCK_LINES printed lines."""
+        per_block = max(1, BLOCK_LINES // len(kind(fam.kind).notation.groups))
+        return [entries[i : i + per_block] for i in range(0, len(entries), per_block)]
+
     def symbol(self, kind_key: str, key: tuple[int, ...]) -> str:
         return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
 
-    def columns(self, table: Table) -> list[tuple[int, str]]:
-        """(position, name) of the arguments a grid row shows: all but the table's parameters."""
-        given = {name for name, _ in table.params}
-        return [(i, a) for i, a in enumerate(kind(table.kind).arguments) if a not in given]
-
-    def head_symbol(self, table: Table) -> str:
-        """The symbol with the table's parameters as numbers and the rest as names (column head)."""
-        given = dict(table.params)
+    def head_symbol(self, table: Table, section: Section | None = None) -> str:
+        """The symbol with the table's (and section's) parameters as numbers and the rest as names."""
+        given = dict(table.params) | dict(section.params if section else ())
         return latex_symbol(
             kind(table.kind).notation,
             [half_text(given[a]) if a in given else qn_tex(a) for a in kind(table.kind).arguments],
@@ -189,7 +234,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "fragment_packages": FRAGMENT_PACKAGES,
         **{name: getattr(helpers, name) for name in (
             "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
-            "columns", "head_symbol",
+            "head_symbol", "plain_convention", "m_rule", "decimal_blocks", "row_blocks",
         )},
     }
     sheet = env.get_template("sheet.tex")

@@ -6,7 +6,7 @@ power of pi) plugs in without touching them:
 
 * ``str(x)``: canonical text that ``sympy.sympify`` reads back as the same
   number (a data format: it goes into checksummed files);
-* ``x.latex(style)``: LaTeX, ``style`` one of "root", "rational";
+* ``x.latex(style)``: LaTeX, ``style`` one of "root", "rational", "inline";
 * ``x.decimal(digits)``: ``digits`` significant digits, correctly rounded
   (half to even), computed in integers only;
 * ``x.to_sympy()``: the same number as a sympy expression (imports sympy);

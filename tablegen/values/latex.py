@@ -1,8 +1,11 @@
 """LaTeX text of exact values, kept beside the types and out of them.
 
-Two styles: "root" writes the square root of a fraction (-\\sqrt{\\frac{5}{14}}),
-"rational" rationalises the denominator (-\\frac{\\sqrt{70}}{14}).  Integers
-and plain fractions are written as such in both.
+Three styles.  Two for displayed formulas and tables: "root" writes the
+square root of a fraction (-\\sqrt{\\frac{5}{14}}), "rational" rationalises the
+denominator (-\\frac{\\sqrt{70}}{14}); integers and plain fractions are written
+as such (\\frac{2}{3}).  One for running text, "inline": a root over a slashed
+fraction (-\\sqrt{5/14}) and slashed fractions (2/3), which keep the line
+height of the sentence around them.
 """
 
 from __future__ import annotations
@@ -13,7 +16,7 @@ from ..intmath import int_text, split_square
 
 __all__ = ["LATEX_STYLES", "check_style", "surd_latex", "sum_latex"]
 
-LATEX_STYLES = ("root", "rational")
+LATEX_STYLES = ("root", "rational", "inline")
 
 
 def check_style(style: str) -> None:
@@ -23,14 +26,25 @@ def check_style(style: str) -> None:
 
 
 def surd_latex(sign: int, p: int, q: int, style: str = "root", wrap: bool = False) -> str:
-    """LaTeX for sign*sqrt(p/q) (p/q reduced); wrap=True puts a negative value or a fraction in \\left( \\right)."""
+    """LaTeX for sign*sqrt(p/q) (p/q reduced); wrap=True puts a negative value or a fraction in parentheses.
+
+    A factor in running text ("inline") gets plain parentheses, the display styles \\left( \\right).
+    """
     check_style(style)
     if not sign:
         return "0"
     t = int_text
     rp, rq = isqrt(p), isqrt(q)
+    slashed = False
     if rp * rp == p and rq * rq == q:
-        body = t(rp) if rq == 1 else f"\\frac{{{t(rp)}}}{{{t(rq)}}}"
+        if rq == 1:
+            body = t(rp)
+        elif style == "inline":
+            body, slashed = f"{t(rp)}/{t(rq)}", True
+        else:
+            body = f"\\frac{{{t(rp)}}}{{{t(rq)}}}"
+    elif style == "inline":
+        body = f"\\sqrt{{{t(p)}}}" if q == 1 else f"\\sqrt{{{t(p)}/{t(q)}}}"
     elif style == "root":
         body = f"\\sqrt{{{t(p)}}}" if q == 1 else f"\\sqrt{{\\frac{{{t(p)}}}{{{t(q)}}}}}"
     else:
@@ -41,8 +55,8 @@ def surd_latex(sign: int, p: int, q: int, style: str = "root", wrap: bool = Fals
         top = f"\\sqrt{{{t(b)}}}" if a == 1 else f"{t(a)}\\sqrt{{{t(b)}}}"
         body = top if den == 1 else f"\\frac{{{top}}}{{{t(den)}}}"
     text = f"-{body}" if sign < 0 else body
-    if wrap and (sign < 0 or "\\frac" in body):
-        return f"\\left({text}\\right)"
+    if wrap and (sign < 0 or slashed or "\\frac" in body):
+        return f"({text})" if style == "inline" else f"\\left({text}\\right)"
     return text
 
 
@@ -56,4 +70,6 @@ def sum_latex(terms: "list[tuple[int, int, int]]", style: str = "root", wrap: bo
         text = surd_latex(*term, style)
         parts.append(f" - {text[1:]}" if text.startswith("-") else f" + {text}")
     text = "".join(parts)
-    return f"\\left({text}\\right)" if wrap and len(terms) > 1 else text
+    if wrap and len(terms) > 1:
+        return f"({text})" if style == "inline" else f"\\left({text}\\right)"
+    return text

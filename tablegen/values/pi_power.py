@@ -87,13 +87,19 @@ class PiPower:
         if e == 0 or not s:
             return s.latex(style)
         minus = "-" if s.sign < 0 else ""
-        if e in (-1, 1) and style == "root":
+        if e in (-1, 1) and style in ("root", "inline"):
             p, q = s.p, s.q
             num = ("\\pi" if p == 1 else f"{p}\\pi") if e == 1 else str(p)
             den = (str(q) if e == 1 else ("\\pi" if q == 1 else f"{q}\\pi"))
-            return f"{minus}\\sqrt{{{num}}}" if den == "1" else f"{minus}\\sqrt{{\\frac{{{num}}}{{{den}}}}}"
+            if den == "1":
+                return f"{minus}\\sqrt{{{num}}}"
+            if style == "inline":  # running text: sqrt(3/(4 pi)) slashed
+                slashed = f"({den})" if den.endswith("\\pi") and den != "\\pi" else den
+                return f"{minus}\\sqrt{{{num}/{slashed}}}"
+            return f"{minus}\\sqrt{{\\frac{{{num}}}{{{den}}}}}"
         power = f"\\pi^{{{e // 2}}}" if e % 2 == 0 else f"\\pi^{{{e}/2}}"
-        return f"{abs(s).latex(style) if abs(s) != 1 else ''}{power}".join([minus, ""])
+        factor = abs(s).latex(style, wrap=style == "inline")  # a slashed factor in parentheses
+        return f"{factor if abs(s) != 1 else ''}{power}".join([minus, ""])
 
     def to_sympy(self):
         import sympy

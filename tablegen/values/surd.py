@@ -298,7 +298,7 @@ class Surd:
         return surd_decimal(self._sign, self._p, self._q, digits)
 
     def latex(self, style: str = "root", wrap: bool = False) -> str:
-        """LaTeX for the value (see values/latex.py for the styles "root" and "rational").
+        """LaTeX for the value (see values/latex.py for the styles "root", "rational" and "inline").
 
         With wrap=True a negative value or a fraction is put in \\left( \\right)
         so that it can be raised to a power.

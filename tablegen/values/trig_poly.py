@@ -247,12 +247,15 @@ class TrigPoly:
         return f"TrigPoly({self._factor!r}, {self._coeffs}, {self._half!r}, {self._var!r})"
 
     def latex(self, style: str = "root") -> str:
-        """As a handbook prints it: \\frac{1}{2}(1+...) as \\frac{\\cos\\beta + 1}{2}, half angles only if needed."""
+        """As a handbook prints it: \\frac{1}{2}(1+...) as \\frac{\\cos\\beta + 1}{2}, half angles only if needed.
+
+        The "inline" style slashes instead: (\\cos\\beta + 1)/2, \\cos(\\beta/2).
+        """
         if not self:
             return "0"
         v = "\\" + self._var if self._var in ("beta", "theta", "alpha", "gamma", "phi") else self._var
-        h_text = {"1": "", "sin": f"\\sin {v}", "cos/2": f"\\cos\\frac{{{v}}}{{2}}",
-                  "sin/2": f"\\sin\\frac{{{v}}}{{2}}"}[self._half]
+        half = f"({v}/2)" if style == "inline" else f"\\frac{{{v}}}{{2}}"  # running text: no built-up fraction
+        h_text = {"1": "", "sin": f"\\sin {v}", "cos/2": f"\\cos{half}", "sin/2": f"\\sin{half}"}[self._half]
         poly, n = self._pieces(v, _tex_power, h_text)
         body = f"\\left({poly}\\right)" if n > 1 and (h_text or not self._factor.is_rational()) else poly
         if h_text:
@@ -265,7 +268,12 @@ class TrigPoly:
             fr = f.as_fraction()
             num = fr.numerator
             top = body if num == 1 else (str(num) if body == "1" else f"{num}\\,{body}")
-            return sign + (top if fr.denominator == 1 else f"\\frac{{{top}}}{{{fr.denominator}}}")
+            if fr.denominator == 1:
+                return sign + top
+            if style == "inline":
+                grouped = f"({top})" if (" + " in top or " - " in top) and not top.startswith("\\left(") else top
+                return f"{sign}{grouped}/{fr.denominator}"
+            return sign + f"\\frac{{{top}}}{{{fr.denominator}}}"
         return f"{sign}{f.latex(style)}" + ("" if body == "1" else f"\\,{body}")
 
     def to_sympy(self):
