@@ -87,6 +87,25 @@ def named_symbol(k: Kind, values: "tuple[str, ...] | None" = None) -> str:
     return f"{n.brackets[0]}{'; '.join(parts)}{n.brackets[1]}"
 
 
+# -- recoupling families (issue 10): matrices between two coupling trees, cells linked to their symbol ---------
+from .kinds.recoupling import sixj_of_recouple3  # noqa: E402
+from .recoupling.tables import recouple3_blocks, recouple3_count  # noqa: E402
+
+RECOUPLING_FAMILIES: tuple[Family, ...] = (
+    Family(
+        key="recouple3",
+        kind="recouple3",
+        title="Recoupling of three angular momenta",
+        nav_label="Recoupling 3",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "J"), row="j12", column="j23", blocks=recouple3_blocks,
+                            count=recouple3_count, source="6j", source_key=sixj_of_recouple3),
+        convention="⟨(j1 j2)j12, j3; J | j1, (j2 j3)j23; J⟩ = (−1)^(j1+j2+j3+J) √((2j12+1)(2j23+1)) "
+        "{j1 j2 j12; j3 J j23}, Condon–Shortley phase; rows j12 (coupled first), columns j23. "
+        "Real and orthogonal: the inverse matrix is the transpose.",
+    ),
+)
+# -- end of the recoupling families ---------------------------------------------------------------------------
+
 FAMILIES: tuple[Family, ...] = (
     Family(
         key="cg",
@@ -130,7 +149,7 @@ FAMILIES: tuple[Family, ...] = (
         convention="Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),
-)
+) + RECOUPLING_FAMILIES
 
 FAMILY_KEYS = tuple(f.key for f in FAMILIES)
 _BY_KEY = {f.key: f for f in FAMILIES}

@@ -142,6 +142,7 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("3j", 0, 8),
         FamilyRange("6j", 0, 8),
         FamilyRange("9j", 0, 4),
+        FamilyRange("recouple3", 0, 3),
     ),
 )
 
@@ -267,13 +268,39 @@ def estimate_size(recipe: Recipe) -> dict[str, int]:
     out: dict[str, int] = {}
     for f in recipe.families:
         n = f.max_tj - f.min_tj + 1  # number of distinct j values
-        if f.family in ("cg", "3j"):
+        exact = _layout_count(f)
+        if exact is not None:
+            out[f.family] = exact
+        elif f.family in ("cg", "3j"):
             out[f.family] = _cg_count(f) if f.max_tj <= 20 else int(0.132 * n**5)  # 7,809 at j <= 4
         elif f.family == "6j":
             out[f.family] = max(1, int(630 * (n / 9) ** 6))  # 630 classes at j <= 4
         else:
             out[f.family] = max(1, int(350 * (n / 5) ** 9))  # ~350 classes at j <= 2
     return out
+
+
+# -- families whose layout counts its own cells (the recoupling matrices, issue 10) ------------------------------
+#: Above this many distinct j a layout's exact count is itself too slow; the guard then extrapolates.
+_COUNT_SPAN = 13
+
+
+def _layout_count(f: FamilyRange) -> int | None:
+    """Exact cells of a family whose layout record has a ``count``; None for the others.
+
+    For a span of j beyond _COUNT_SPAN the count at that span is scaled by the
+    span to the sixth power, enough for a guard against runaway builds.
+    """
+    from .families import family
+
+    count = getattr(family(f.family).layout, "count", None)
+    if count is None:
+        return None
+    n = f.max_tj - f.min_tj + 1
+    if n <= _COUNT_SPAN:
+        return count(f.min_tj, f.max_tj)
+    return int(count(f.min_tj, f.min_tj + _COUNT_SPAN - 1) * (n / _COUNT_SPAN) ** 6)
+# -- end of the layout counts ----------------------------------------------------------------------------------
 
 
 def check_size(recipe: Recipe, allow_large: bool = False) -> dict[str, int]:

@@ -46,6 +46,7 @@ class Entry:
     twin: path#anchor of the same number in another family (CG <-> 3j), if tabulated.
     forms: classes layout only: how many distinct symbols the class holds (see ``members``).
     kind: the kinds.Kind key of the value.
+    source: path#anchor of the value this one is made of (the 6j of a recoupling coefficient), if tabulated.
     """
 
     key: tuple[int, ...]
@@ -53,6 +54,7 @@ class Entry:
     twin: str | None = None
     forms: int = 0
     kind: str = ""
+    source: str | None = None
 
     @property
     def members(self) -> tuple[tuple[tuple[int, ...], int], ...]:

@@ -69,6 +69,18 @@ class ClassesLayout:
         """'1,1,1;1,1,1' for a 6j, '1,1,0;1,1,1;0,1,1' for a 9j: the kind's rows, joined."""
         return ";".join(",".join(half(key[i]) for i in g) for g in groups)
 
+    def locate(self, fam: "Family", f: "FamilyRange", key: tuple[int, ...]) -> "str | None":
+        """'page#anchor' of the class holding the symbol ``key`` (doubled) if this build tabulates it, else None.
+
+        A class is tabulated when one of its forms has every j in the range (as ``plan`` enumerates them).
+        """
+        k = fam.kind_record
+        members = k.members(*key)
+        if not any(all(f.min_tj <= m[i] <= f.max_tj for i in k.j_positions) for m, _ in members):
+            return None
+        canon = members[0][0]
+        return f"{self.page_path(fam.key, canon[0])}#{self.anchor(canon, k.notation.groups)}"
+
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
         k = fam.kind_record
         groups = k.notation.groups

@@ -44,6 +44,11 @@ class MatrixLayout:
     column: str  # kind argument labelling the columns ("j23", "m")
     blocks: Callable[[int, int], Iterable[MatrixBlock]] = field(repr=False)  # (min 2j, max 2j) -> blocks in order
     count_noun: str = "values"
+    # the family whose value each cell is made of (the 6j of a recoupling coefficient), and the map from a
+    # cell's key to that value's key: a cell links to it where that family's layout tabulates it in this build
+    count: "Callable[[int, int], int] | None" = field(default=None, repr=False)  # exact cells for (min 2j, max 2j)
+    source: str = ""
+    source_key: "Callable[[tuple[int, ...]], tuple[int, ...]] | None" = field(default=None, repr=False)
 
     name = "matrix"
 
@@ -69,7 +74,17 @@ class MatrixLayout:
     def params(self) -> tuple[str, ...]:
         return self.block
 
+    def locate(self, fam: "Family", f: "FamilyRange", key: tuple[int, ...]) -> "str | None":
+        """'page#anchor' of the value with doubled ``key`` if this family's range holds it, else None."""
+        k = fam.kind_record
+        at = dict(zip(k.arguments, key))
+        if not all(f.min_tj <= key[i] <= f.max_tj for i in k.j_positions):
+            return None
+        anchor = self.anchor(self.block_anchor(tuple((n, at[n]) for n in self.block)), at[self.row], at[self.column])
+        return f"{self.page_path(fam.key, at[self.block[0]])}#{anchor}"
+
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
+        source = lookup(self.source) if self.source else None
         by_page: dict[tuple[str, int], list[MatrixBlock]] = {}
         for block in self.blocks(f.min_tj, f.max_tj):
             if tuple(n for n, _ in block.params) != self.block:
@@ -85,7 +100,11 @@ class MatrixLayout:
                     line = []
                     for tc in block.columns:
                         key = block.key(tr, tc)
-                        e = None if key is None else Entry(key, self.anchor(anchor, tr, tc), None, 0, fam.kind)
+                        if key is None:
+                            e = None
+                        else:
+                            link = source[0].layout.locate(source[0], source[1], self.source_key(key)) if source else None
+                            e = Entry(key, self.anchor(anchor, tr, tc), None, 0, fam.kind, link)
                         line.append(e)
                         if e is not None:
                             entries.append(e)

@@ -47,6 +47,7 @@ class Cell:
     note: str  # the quantum number not given by row and column (grid: m2)
     twin: str | None  # relative link to the same number in the twin family
     zero: bool
+    source: str | None = None  # relative link to the value this one is made of (matrix layout's source)
 
 
 @dataclass(frozen=True)
@@ -100,6 +101,7 @@ def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell
         note=note,
         twin=relative_url(page.path, entry.twin) if entry.twin else None,
         zero=not s.value,
+        source=relative_url(page.path, entry.source) if entry.source else None,
     )
 
 
@@ -234,12 +236,14 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
             cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
             rows.append(Row(label=_qn(tr), anchor=s.row_anchors[r], cells=cells))
         sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns], "rows": rows})
+    source = site.plan.family(fam.layout.source) if fam.layout.source in site.keys else None
     return site.render(
         "matrix.html",
         page,
         table=table,
         fam=fam,
         layout=fam.layout,
+        source_label=source.kind_record.key if source else "",
         sections=sections,
         files=site.files(page, table),
         count=len(table.entries),

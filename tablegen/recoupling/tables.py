@@ -1,0 +1,45 @@
+"""Which recoupling matrices a site shows: the blocks of the recoupling families, and their exact sizes.
+
+Pure combinatorics on doubled ints (the triad rule), no values: the matrix
+layout (tablegen.layouts.matrix) turns the blocks into pages, the recipe's
+size guard uses the counts.  A block holds every allowed intermediate of
+both trees, so each matrix is square and orthogonal.
+"""
+
+from __future__ import annotations
+
+from typing import Iterator
+
+from ..layouts import MatrixBlock
+from ..triads import is_triad
+
+__all__ = ["recouple3_blocks", "recouple3_count"]
+
+
+def _between(ta: int, tb: int) -> range:
+    """Doubled values coupling ta and tb can reach."""
+    return range(abs(ta - tb), ta + tb + 1, 2)
+
+
+def _recouple3_shapes(lo: int, hi: int) -> Iterator[tuple[int, int, int, int, tuple[int, ...], tuple[int, ...]]]:
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                totals = sorted({tJ for t12 in _between(j1, j2) for tJ in _between(t12, j3)})
+                for tJ in totals:
+                    rows = tuple(t for t in _between(j1, j2) if is_triad(t, j3, tJ))
+                    cols = tuple(t for t in _between(j2, j3) if is_triad(j1, t, tJ))
+                    yield j1, j2, j3, tJ, rows, cols
+
+
+def recouple3_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, j2, j3, J) with leaves in [lo, hi] (doubled): rows j12, columns j23."""
+    for j1, j2, j3, tJ, rows, cols in _recouple3_shapes(lo, hi):
+        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("J", tJ)), rows, cols,
+                          lambda t12, t23, a=(j1, j2, j3, tJ): a + (t12, t23))
+
+
+def recouple3_count(lo: int, hi: int) -> int:
+    """Exact number of cells of recouple3_blocks(lo, hi)."""
+    return sum(len(rows) * len(cols) for *_, rows, cols in _recouple3_shapes(lo, hi))

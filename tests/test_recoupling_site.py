@@ -1,0 +1,221 @@
+"""The recoupling families on the site (issue 10): pages, data, LaTeX, links to the symbols, exact values.
+
+The family ``recouple3`` shows <((j1 j2)j12 j3)J | (j1 (j2 j3)j23)J> as one
+matrix per (j1, j2, j3, J) on the matrix layout, each cell linked to the 6j
+it is made of when the build tabulates that 6j.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import itertools
+import json
+import shutil
+import subprocess
+from fractions import Fraction
+
+import pytest
+
+from tablegen.build import build, render_outputs
+from tablegen.compute import compute_values
+from tablegen.families import family
+from tablegen.kinds.recoupling import recouple3, sixj_of_recouple3
+from tablegen.linkcheck import LinkCheck
+from tablegen.plan import plan_site
+from tablegen.recipe import DEFAULT_RECIPE, FamilyRange, Recipe, estimate_size
+from tablegen.values import ExactSum
+from tablegen.verify import verify_site
+
+RANGE = FamilyRange("recouple3", 0, 3)  # leaves j <= 3/2
+
+
+@pytest.fixture(scope="module")
+def built():
+    recipe = Recipe(title="Recoupling test", families=(FamilyRange("6j", 0, 9), RANGE))  # every 6j of the matrices
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    _, outputs = render_outputs(plan, book)
+    return plan, book, dict(outputs)
+
+
+def _sections(plan):
+    for table in plan.tables_of("recouple3"):
+        for s in table.sections:
+            yield table, s
+
+
+def test_every_matrix_is_orthogonal(built):
+    # common practice, no source: a change of orthonormal basis is an orthogonal matrix (real entries)
+    plan, book, _ = built
+    blocks = 0
+    for _, s in _sections(plan):
+        n = len(s.rows)
+        assert n == len(s.columns), s.anchor  # both trees span the same space
+        m = [[book[("recouple3", s.grid[r][c].key)].value for c in range(n)] for r in range(n)]
+        for a, b in itertools.combinations_with_replacement(range(n), 2):
+            rows, cols = ExactSum(), ExactSum()
+            for k in range(n):
+                rows += m[a][k] * m[b][k]
+                cols += m[k][a] * m[k][b]
+            want = 1 if a == b else 0
+            assert rows == want and cols == want, (s.anchor, a, b)
+        blocks += 1
+    assert blocks == sum(1 for _ in family("recouple3").layout.blocks(RANGE.min_tj, RANGE.max_tj)) > 50
+
+
+def _brute_force(t):
+    """Sum over all m of CG products along both trees, with sympy's CG (sympy.physics.quantum.cg) as reference."""
+    from sympy import Rational, S
+    from sympy.physics.quantum.cg import CG
+
+    j1, j2, j3, J, j12, j23 = (Rational(x, 2) for x in t)
+    M = J  # the overlap does not depend on M
+    total = S(0)
+    for m1 in (j1 - k for k in range(int(2 * j1) + 1)):
+        for m2 in (j2 - k for k in range(int(2 * j2) + 1)):
+            m3 = M - m1 - m2
+            if abs(m3) > j3 or abs(m1 + m2) > j12 or abs(m2 + m3) > j23:
+                continue
+            left = CG(j1, m1, j2, m2, j12, m1 + m2).doit() * CG(j12, m1 + m2, j3, m3, J, M).doit()
+            right = CG(j2, m2, j3, m3, j23, m2 + m3).doit() * CG(j1, m1, j23, m2 + m3, J, M).doit()
+            total += left * right
+    return total
+
+
+def test_entries_agree_with_brute_force_cg_sums(built):
+    # reference library: sympy's CG coefficients, exactly, on every 5th cell
+    import sympy
+
+    plan, book, _ = built
+    keys = [e.key for _, s in _sections(plan) for e in s.entries]
+    sample = keys[::5]
+    assert len(sample) > 60
+    for key in sample:
+        want = _brute_force(key)
+        assert sympy.simplify(book[("recouple3", key)].value.to_sympy() - want) == 0, key
+
+
+def test_entries_equal_the_6j_formula_and_link_to_that_6j(built):
+    # Edmonds 1957, eq. 6.1.5: <(j1 j2)j12, j3; J | j1, (j2 j3)j23; J>
+    #   = (-1)^(j1+j2+j3+J) sqrt((2j12+1)(2j23+1)) {j1 j2 j12; j3 J j23}
+    plan, book, files = built
+    six = family("6j")
+    six_range = plan.recipe.family("6j")
+    linked = 0
+    for table, s in _sections(plan):
+        page = files[table.page].decode("utf-8")
+        for e in s.entries:
+            j1, j2, j3, J, j12, j23 = e.key
+            sym = sixj_of_recouple3(e.key)
+            sixj = six.kind_record.doubled(*sym)
+            sign = -1 if (j1 + j2 + j3 + J) // 2 % 2 else 1
+            assert book[("recouple3", e.key)].value ** 2 == (j12 + 1) * (j23 + 1) * sixj ** 2, e.key
+            assert (book[("recouple3", e.key)].value * sign * sixj >= 0), e.key
+            # the link names the class page and anchor of that 6j, as the 6j layout record writes them
+            target = six.layout.locate(six, six_range, sym)
+            assert e.source == target is not None
+            canon = six.kind_record.members(*sym)[0][0]
+            path, anchor = target.split("#")
+            assert path == six.layout.page_path("6j", canon[0])
+            assert f'id="{anchor}"' in files[path].decode("utf-8")
+            assert f'href="../{target}"' in page
+            linked += 1
+    assert linked == len([e for t in plan.tables_of("recouple3") for e in t.entries])
+
+
+def test_links_only_to_6j_symbols_the_build_tabulates():
+    # 6j only up to j = 1: a cell links to its 6j only when a form of that 6j's class (Regge symmetries
+    # included) has every j <= 1, which is when the 6j pages hold the class; every link resolves
+    recipe = Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("recouple3", 0, 2)))
+    plan = plan_site(recipe)
+    entries = [e for t in plan.tables_of("recouple3") for e in t.entries]
+    with_link = [e for e in entries if e.source]
+    assert 0 < len(with_link) < len(entries)
+    for e in entries:
+        forms = family("6j").kind_record.members(*sixj_of_recouple3(e.key))
+        assert bool(e.source) == any(all(x <= 2 for x in m) for m, _ in forms), e.key
+    book = compute_values(plan, jobs=1)
+    check = LinkCheck(plan)
+    for path, data in render_outputs(plan, book)[1]:
+        check.add(path, data)
+    assert check.finish() > 0
+    # without the 6j family in the build there are no links at all
+    alone = plan_site(Recipe(families=(FamilyRange("recouple3", 0, 2),)))
+    assert not any(e.source for t in alone.tables for e in t.entries)
+
+
+def test_page_data_and_latex(built):
+    plan, book, files = built
+    table = plan.tables_of("recouple3")[2]
+    page = files[table.page].decode("utf-8")
+    assert '<th class="corner"><i>j</i><sub>12</sub> ╲ <i>j</i><sub>23</sub></th>' in page
+    assert "(−1)^(j1+j2+j3+J)" in page  # the convention is stated
+    rows = list(csv.reader(io.StringIO(files[table.csv].decode("utf-8"))))
+    assert rows[0] == ["j1", "j2", "j3", "J", "j12", "j23", "exact", "square", "decimal"]
+    assert len(rows) - 1 == len(table.entries)
+    for row, e in zip(rows[1:], table.entries):
+        assert [int(Fraction(x) * 2) for x in row[:6]] == list(e.key)
+        assert row[6] == book[("recouple3", e.key)].exact
+    doc = json.loads(files[table.json])
+    assert doc["family"] == "recouple3" and len(doc["rows"]) == len(table.entries)
+    tex = files[table.tex].decode("utf-8")
+    assert tex.count("\\begin{longtable}") == len(table.sections)
+    assert "j_{12} \\backslash j_{23}" in tex
+    # values.txt lists every recoupling value under its kind
+    values = files["values.txt"].decode("utf-8")
+    assert sum(1 for line in values.splitlines() if line.startswith("recouple3 ")) == len(
+        {e.key for t in plan.tables_of("recouple3") for e in t.entries})
+
+
+def test_size_estimate_is_the_exact_count():
+    for lo, hi in ((0, 3), (1, 4), (2, 2)):
+        plan = plan_site(Recipe(families=(FamilyRange("recouple3", lo, hi),)))
+        n = sum(len(t.entries) for t in plan.tables)
+        assert estimate_size(Recipe(families=(FamilyRange("recouple3", lo, hi),)))["recouple3"] == n
+
+
+def test_default_recipe_has_the_family():
+    assert DEFAULT_RECIPE.family("recouple3") == RANGE
+
+
+def test_a_built_site_verifies(tmp_path):
+    # verify recomputes every recoupling value of the data files through the kind record
+    out = tmp_path / "site"
+    build(Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("recouple3", 0, 2))), out, jobs=1)
+    report = verify_site(str(out))
+    assert report.ok, report.problems
+    assert report.values > 0
+    # a forged value is caught
+    csv_path = next((out / "data").glob("recouple3-*.csv"))
+    text = csv_path.read_text()
+    forged = text.replace("sqrt(1/3)", "sqrt(1/4)", 1)
+    assert forged != text
+    csv_path.write_text(forged)
+    assert not verify_site(str(out)).ok
+
+
+def test_fragment_compiles(built, tmp_path):
+    # the LaTeX sheet of one table compiles with pdflatex (skipped when TeX is not installed)
+    pdflatex = shutil.which("pdflatex")
+    if pdflatex is None:
+        pytest.skip("pdflatex not found: LaTeX of the recoupling tables NOT compiled")
+    plan, _, files = built
+    table = plan.tables_of("recouple3")[-1]
+    (tmp_path / "sheet.tex").write_bytes(files[table.tex_sheet])
+    for path, data in files.items():
+        if path.startswith("latex/") and path != table.tex_sheet:
+            (tmp_path / path.split("/", 1)[1]).write_bytes(data)
+    proc = subprocess.run([pdflatex, "-interaction=nonstopmode", "-halt-on-error", "sheet.tex"], cwd=tmp_path,
+                          capture_output=True, text=True, errors="replace", timeout=300)
+    assert proc.returncode == 0, proc.stdout[-3000:]
+
+
+def test_kind_value_matches_engine_api():
+    # the kind evaluates through the engine's public recoupling function (one path for API, CLI and site)
+    from tablegen.recoupling import recoupling
+
+    for key in ((2, 2, 2, 2, 0, 2), (1, 1, 2, 2, 2, 1), (3, 1, 4, 4, 2, 5)):
+        names = dict(zip(("j1", "j2", "j3", "J", "j12", "j23"), (Fraction(x, 2) for x in key)))
+        assert recouple3(*key) == recoupling("((j1 j2)j12 j3)J", "(j1 (j2 j3)j23)J",
+                                             **{k: str(v) for k, v in names.items()})
