@@ -21,7 +21,7 @@ from __future__ import annotations
 from functools import lru_cache
 
 from ..values import Surd
-from . import Kind, Notation, Selection
+from . import Kind, Notation, Selection, ZeroRule
 from .common import first_triad_zero, parse_js
 
 __all__ = ["RECOUPLE3", "RECOUPLE4", "recouple3", "recouple4", "sixj_of_recouple3", "ninej_of_recouple4",
@@ -77,12 +77,15 @@ def ninej_of_recouple4(t: tuple[int, ...]) -> tuple[int, ...]:
     return (j1, j2, j12, j3, j4, j34, j13, j24, J)
 
 
+_CANCELLATION = ZeroRule("cancellation", "every coupling of both trees is allowed, but the sum is exactly 0")
+
+
 def _zero3(t):
-    return first_triad_zero(t, _ARGS3, _TRIADS3)
+    return first_triad_zero(t, _ARGS3, _TRIADS3) or (None if recouple3(*t) else _CANCELLATION)
 
 
 def _zero4(t):
-    return first_triad_zero(t, _ARGS4, _TRIADS4)
+    return first_triad_zero(t, _ARGS4, _TRIADS4) or (None if recouple4(*t) else _CANCELLATION)
 
 
 RECOUPLE3 = Kind(
@@ -90,7 +93,7 @@ RECOUPLE3 = Kind(
     title="recoupling coefficient of three angular momenta",
     arguments=_ARGS3,
     j_positions=tuple(range(6)),
-    parse=lambda values, max_j: parse_js("recouple3", _ARGS3, values, max_j),
+    parse=lambda values, max_j=None: parse_js("recouple3", _ARGS3, values, max_j),
     doubled=recouple3,
     zero_rule=_zero3,
     notation=Notation("function", ((0, 1, 2), (3,), (4, 5)), name="R3"),
@@ -102,7 +105,7 @@ RECOUPLE4 = Kind(
     title="recoupling coefficient of four angular momenta",
     arguments=_ARGS4,
     j_positions=tuple(range(9)),
-    parse=lambda values, max_j: parse_js("recouple4", _ARGS4, values, max_j),
+    parse=lambda values, max_j=None: parse_js("recouple4", _ARGS4, values, max_j),
     doubled=recouple4,
     zero_rule=_zero4,
     notation=Notation("function", ((0, 1, 2, 3), (4,), (5, 6), (7, 8)), name="R4"),
