@@ -88,8 +88,8 @@ def named_symbol(k: Kind, values: "tuple[str, ...] | None" = None) -> str:
 
 
 # -- recoupling families (issue 10): matrices between two coupling trees, cells linked to their symbol ---------
-from .kinds.recoupling import sixj_of_recouple3  # noqa: E402
-from .recoupling.tables import recouple3_blocks, recouple3_count  # noqa: E402
+from .kinds.recoupling import ninej_of_recouple4, sixj_of_recouple3  # noqa: E402
+from .recoupling.tables import recouple3_blocks, recouple3_count, recouple4_blocks, recouple4_count  # noqa: E402
 
 RECOUPLING_FAMILIES: tuple[Family, ...] = (
     Family(
@@ -102,6 +102,18 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         convention="⟨(j1 j2)j12, j3; J | j1, (j2 j3)j23; J⟩ = (−1)^(j1+j2+j3+J) √((2j12+1)(2j23+1)) "
         "{j1 j2 j12; j3 J j23}, Condon–Shortley phase; rows j12 (coupled first), columns j23. "
         "Real and orthogonal: the inverse matrix is the transpose.",
+    ),
+    Family(
+        key="recouple4",
+        kind="recouple4",
+        title="Recoupling of four angular momenta",
+        nav_label="Recoupling 4",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "j4", "J"), row=("j12", "j34"), column=("j13", "j24"),
+                            blocks=recouple4_blocks, count=recouple4_count, source="9j",
+                            source_key=ninej_of_recouple4),
+        convention="⟨(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J⟩ = "
+        "√((2j12+1)(2j34+1)(2j13+1)(2j24+1)) {j1 j2 j12; j3 j4 j34; j13 j24 J}, Condon–Shortley phase; "
+        "rows (j12, j34), columns (j13, j24). Real and orthogonal: the inverse matrix is the transpose.",
     ),
 )
 # -- end of the recoupling families ---------------------------------------------------------------------------

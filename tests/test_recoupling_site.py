@@ -24,10 +24,10 @@ from tablegen.kinds.recoupling import recouple3, sixj_of_recouple3
 from tablegen.linkcheck import LinkCheck
 from tablegen.plan import plan_site
 from tablegen.recipe import DEFAULT_RECIPE, FamilyRange, Recipe, estimate_size
-from tablegen.values import ExactSum
+from tablegen.values import ExactSum, Surd
 from tablegen.verify import verify_site
 
-RANGE = FamilyRange("recouple3", 0, 3)  # leaves j <= 3/2
+RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2, the default recipe's range
 
 
 @pytest.fixture(scope="module")
@@ -219,3 +219,96 @@ def test_kind_value_matches_engine_api():
         names = dict(zip(("j1", "j2", "j3", "J", "j12", "j23"), (Fraction(x, 2) for x in key)))
         assert recouple3(*key) == recoupling("((j1 j2)j12 j3)J", "(j1 (j2 j3)j23)J",
                                              **{k: str(v) for k, v in names.items()})
+
+
+# -- four angular momenta: recouple4, each cell linked to its 9j ------------------------------------------
+RANGE4 = FamilyRange("recouple4", 1, 2)  # leaves 1/2 and 1 (the default recipe shows 1/2 only)
+
+
+@pytest.fixture(scope="module")
+def built4():
+    recipe = Recipe(title="Recoupling test", families=(FamilyRange("9j", 0, 4), RANGE4))
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    _, outputs = render_outputs(plan, book)
+    return plan, book, dict(outputs)
+
+
+def test_four_leaf_matrices_are_orthogonal(built4):
+    # common practice, no source: a change of orthonormal basis is an orthogonal matrix
+    plan, book, _ = built4
+    blocks = 0
+    for table in plan.tables_of("recouple4"):
+        for s in table.sections:
+            n = len(s.rows)
+            assert n == len(s.columns), s.anchor
+            m = [[book[("recouple4", s.grid[r][c].key)].value for c in range(n)] for r in range(n)]
+            for a, b in itertools.combinations_with_replacement(range(n), 2):
+                total = ExactSum()
+                for k in range(n):
+                    total += m[a][k] * m[b][k]
+                assert total == (1 if a == b else 0), (s.anchor, a, b)
+            blocks += 1
+    assert blocks > 30
+
+
+def _brute_force4(t):
+    """Sum over all m of CG products along both four-leaf trees, sympy's CG as reference."""
+    from sympy import Rational, S
+    from sympy.physics.quantum.cg import CG
+
+    j1, j2, j3, j4, J, j12, j34, j13, j24 = (Rational(x, 2) for x in t)
+    M = J
+    cg = lambda a, ma, b, mb, c: CG(a, ma, b, mb, c, ma + mb).doit()  # noqa: E731
+    span = lambda j: [j - k for k in range(int(2 * j) + 1)]  # noqa: E731
+    total = S(0)
+    for m1, m2, m3 in itertools.product(span(j1), span(j2), span(j3)):
+        m4 = M - m1 - m2 - m3
+        if abs(m4) > j4 or abs(m1 + m2) > j12 or abs(m3 + m4) > j34 or abs(m1 + m3) > j13 or abs(m2 + m4) > j24:
+            continue
+        left = cg(j1, m1, j2, m2, j12) * cg(j3, m3, j4, m4, j34) * CG(j12, m1 + m2, j34, m3 + m4, J, M).doit()
+        right = cg(j1, m1, j3, m3, j13) * cg(j2, m2, j4, m4, j24) * CG(j13, m1 + m3, j24, m2 + m4, J, M).doit()
+        total += left * right
+    return total
+
+
+def test_four_leaf_entries_agree_with_brute_force_cg_sums(built4):
+    # reference library: sympy's CG coefficients, exactly, on every 12th cell
+    import sympy
+
+    plan, book, _ = built4
+    keys = [e.key for t in plan.tables_of("recouple4") for e in t.entries]
+    sample = keys[::12]
+    assert len(sample) > 40
+    for key in sample:
+        assert sympy.simplify(book[("recouple4", key)].value.to_sympy() - _brute_force4(key)) == 0, key
+
+
+def test_four_leaf_entries_equal_the_9j_formula_and_link_to_it(built4):
+    # Edmonds 1957, eq. 6.4.2: <(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J>
+    #   = sqrt((2j12+1)(2j34+1)(2j13+1)(2j24+1)) {j1 j2 j12; j3 j4 j34; j13 j24 J}
+    from tablegen.kinds.recoupling import ninej_of_recouple4
+
+    plan, book, files = built4
+    nine = family("9j")
+    linked = 0
+    for table in plan.tables_of("recouple4"):
+        page = files[table.page].decode("utf-8")
+        assert "(<i>j</i><sub>12</sub>, <i>j</i><sub>34</sub>) ╲ (<i>j</i><sub>13</sub>, <i>j</i><sub>24</sub>)" in page
+        for e in table.entries:
+            j1, j2, j3, j4, J, j12, j34, j13, j24 = e.key
+            sym = ninej_of_recouple4(e.key)
+            value = nine.kind_record.doubled(*sym)
+            assert book[("recouple4", e.key)].value == value * Surd(1, (j12 + 1) * (j34 + 1) * (j13 + 1) * (j24 + 1), 1)
+            assert e.source == nine.layout.locate(nine, plan.recipe.family("9j"), sym)
+            if e.source is None:  # a total J = 3 or 4 lies beyond the 9j pages of this build (j <= 2)
+                assert max(sym) > 4
+                continue
+            linked += 1
+            assert f'href="../{e.source}"' in page
+            path, anchor = e.source.split("#")
+            assert f'id="{anchor}"' in files[path].decode("utf-8")
+    assert linked > 300
+    tex = files[plan.tables_of("recouple4")[0].tex].decode("utf-8")
+    assert "(j_{12}, j_{34}) \\backslash (j_{13}, j_{24})" in tex
+    assert "& (1/2, 1/2)" in tex or "& (1, 0)" in tex

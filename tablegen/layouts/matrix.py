@@ -27,7 +27,10 @@ __all__ = ["MatrixLayout", "MatrixBlock"]
 
 @dataclass(frozen=True, slots=True)
 class MatrixBlock:
-    """One matrix: doubled parameters, row and column labels (doubled), and the key of a cell."""
+    """One matrix: doubled parameters, row and column labels (doubled), and the key of a cell.
+
+    A label is one doubled value, or a tuple of them when the layout names several arguments.
+    """
 
     params: tuple[tuple[str, int], ...]
     rows: tuple[int, ...]
@@ -40,8 +43,8 @@ class MatrixLayout:
     """Rows and columns labelled by quantum numbers; each cell one value."""
 
     block: tuple[str, ...]  # kind argument names fixed per matrix ("j1", "j2", "j3", "J")
-    row: str  # kind argument labelling the rows ("j12", "mp")
-    column: str  # kind argument labelling the columns ("j23", "m")
+    row: "str | tuple[str, ...]"  # kind argument(s) labelling the rows ("j12", "mp"; ("j12", "j34"))
+    column: "str | tuple[str, ...]"  # kind argument(s) labelling the columns ("j23", "m"; ("j13", "j24"))
     blocks: Callable[[int, int], Iterable[MatrixBlock]] = field(repr=False)  # (min 2j, max 2j) -> blocks in order
     count_noun: str = "values"
     # the family whose value each cell is made of (the 6j of a recoupling coefficient), and the map from a
@@ -59,8 +62,29 @@ class MatrixLayout:
     def block_anchor(params: tuple[tuple[str, int], ...]) -> str:
         return ",".join(f"{n}={half(v)}" for n, v in params)
 
-    def anchor(self, block: str, tr: int, tc: int) -> str:
-        return f"{block};{self.row}={half(tr)},{self.column}={half(tc)}"
+    @property
+    def row_names(self) -> tuple[str, ...]:
+        return (self.row,) if isinstance(self.row, str) else tuple(self.row)
+
+    @property
+    def column_names(self) -> tuple[str, ...]:
+        return (self.column,) if isinstance(self.column, str) else tuple(self.column)
+
+    @staticmethod
+    def label(value: "int | tuple[int, ...]") -> str:
+        """A row or column label as text: '3/2', or '(1, 3/2)' for a label of two arguments."""
+        return half(value) if isinstance(value, int) else f"({', '.join(half(v) for v in value)})"
+
+    @staticmethod
+    def _assign(names: tuple[str, ...], value: "int | tuple[int, ...]") -> str:
+        values = (value,) if isinstance(value, int) else value
+        return ",".join(f"{n}={half(v)}" for n, v in zip(names, values))
+
+    def anchor(self, block: str, tr: "int | tuple[int, ...]", tc: "int | tuple[int, ...]") -> str:
+        return f"{block};{self._assign(self.row_names, tr)},{self._assign(self.column_names, tc)}"
+
+    def row_anchor(self, block: str, tr: "int | tuple[int, ...]") -> str:
+        return f"row:{block};{self._assign(self.row_names, tr)}"
 
     def page_pattern(self, key: str) -> str:
         """The page path with argument names in braces (the jump box fills them in)."""
@@ -68,7 +92,7 @@ class MatrixLayout:
 
     def anchor_pattern(self) -> str:
         block = ",".join(f"{n}={{{n}}}" for n in self.block)
-        return f"{block};{self.row}={{{self.row}}},{self.column}={{{self.column}}}"
+        return f"{block};" + ",".join(f"{n}={{{n}}}" for n in self.row_names + self.column_names)
 
     @property
     def params(self) -> tuple[str, ...]:
@@ -80,7 +104,9 @@ class MatrixLayout:
         at = dict(zip(k.arguments, key))
         if not all(f.min_tj <= key[i] <= f.max_tj for i in k.j_positions):
             return None
-        anchor = self.anchor(self.block_anchor(tuple((n, at[n]) for n in self.block)), at[self.row], at[self.column])
+        pick = lambda names: at[names[0]] if len(names) == 1 else tuple(at[n] for n in names)  # noqa: E731
+        anchor = self.anchor(self.block_anchor(tuple((n, at[n]) for n in self.block)), pick(self.row_names),
+                             pick(self.column_names))
         return f"{self.page_path(fam.key, at[self.block[0]])}#{anchor}"
 
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
@@ -116,7 +142,7 @@ class MatrixLayout:
                     rows=block.rows,
                     columns=block.columns,
                     grid=tuple(grid),
-                    row_anchors=tuple(f"row:{anchor};{self.row}={half(tr)}" for tr in block.rows),
+                    row_anchors=tuple(self.row_anchor(anchor, tr) for tr in block.rows),
                     params=block.params,
                 ))
             tid = f"{fam.key}-{name}-{file_code(value)}"

@@ -13,7 +13,7 @@ from typing import Iterator
 from ..layouts import MatrixBlock
 from ..triads import is_triad
 
-__all__ = ["recouple3_blocks", "recouple3_count"]
+__all__ = ["recouple3_blocks", "recouple3_count", "recouple4_blocks", "recouple4_count"]
 
 
 def _between(ta: int, tb: int) -> range:
@@ -43,3 +43,30 @@ def recouple3_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
 def recouple3_count(lo: int, hi: int) -> int:
     """Exact number of cells of recouple3_blocks(lo, hi)."""
     return sum(len(rows) * len(cols) for *_, rows, cols in _recouple3_shapes(lo, hi))
+
+
+def _recouple4_shapes(lo: int, hi: int):
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                for j4 in js:
+                    pairs12 = [(a, b) for a in _between(j1, j2) for b in _between(j3, j4)]
+                    pairs13 = [(a, b) for a in _between(j1, j3) for b in _between(j2, j4)]
+                    totals = sorted({tJ for a, b in pairs12 for tJ in _between(a, b)})
+                    for tJ in totals:
+                        rows = tuple(p for p in pairs12 if is_triad(p[0], p[1], tJ))
+                        cols = tuple(p for p in pairs13 if is_triad(p[0], p[1], tJ))
+                        yield j1, j2, j3, j4, tJ, rows, cols
+
+
+def recouple4_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, j2, j3, j4, J) with leaves in [lo, hi] (doubled): rows (j12, j34), columns (j13, j24)."""
+    for j1, j2, j3, j4, tJ, rows, cols in _recouple4_shapes(lo, hi):
+        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("j4", j4), ("J", tJ)), rows, cols,
+                          lambda r, c, a=(j1, j2, j3, j4, tJ): a + r + c)
+
+
+def recouple4_count(lo: int, hi: int) -> int:
+    """Exact number of cells of recouple4_blocks(lo, hi)."""
+    return sum(len(rows) * len(cols) for *_, rows, cols in _recouple4_shapes(lo, hi))

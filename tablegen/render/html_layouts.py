@@ -19,6 +19,7 @@ from ..kinds import kind
 from ..sitemodel import Entry, Page, Section
 from ..spins import half_text
 from . import mathml
+from .env import qn_html
 from .links import relative_url
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -226,16 +227,24 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
 
 
 # -- matrix -------------------------------------------------------------------------------
+def _names_html(names: tuple[str, ...]) -> Markup:
+    """'j12' or '(j12, j34)' with each name set as a quantum number."""
+    inner = Markup(", ").join(qn_html(n) for n in names)
+    return inner if len(names) == 1 else Markup("({})").format(inner)
+
+
 def _matrix_page(site: "_Site", page: Page) -> bytes:
     table = site.plan.table(page.tables[0])
     fam = site.plan.family(table.family)
     sections = []
     for s in table.sections:
         rows = []
+        label = fam.layout.label
         for r, tr in enumerate(s.rows):
             cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
-            rows.append(Row(label=_qn(tr), anchor=s.row_anchors[r], cells=cells))
-        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns], "rows": rows})
+            rows.append(Row(label=_dash(label(tr)), anchor=s.row_anchors[r], cells=cells))
+        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_dash(label(c)) for c in s.columns],
+                         "rows": rows})
     source = site.plan.family(fam.layout.source) if fam.layout.source in site.keys else None
     return site.render(
         "matrix.html",
@@ -244,6 +253,8 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
         fam=fam,
         layout=fam.layout,
         source_label=source.kind_record.key if source else "",
+        row_head=_names_html(fam.layout.row_names),
+        column_head=_names_html(fam.layout.column_names),
         sections=sections,
         files=site.files(page, table),
         count=len(table.entries),

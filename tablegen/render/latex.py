@@ -159,6 +159,18 @@ class _Helpers:
     def section_params(self, section: Section) -> str:
         return self._params(section.params, None, True)
 
+    @staticmethod
+    def qn_names(names: "str | tuple[str, ...]") -> str:
+        """A label's argument name(s) in LaTeX math: 'j_{12}' or '(j_{12}, j_{34})'."""
+        if isinstance(names, str):
+            return qn_tex(names)
+        return "(" + ", ".join(qn_tex(n) for n in names) + ")"
+
+    @staticmethod
+    def qn_label(value: "int | tuple[int, ...]") -> str:
+        """A label's value(s): '3/2' or '(1, 3/2)'."""
+        return half_text(value) if isinstance(value, int) else "(" + ", ".join(half_text(v) for v in value) + ")"
+
     def symbol(self, kind_key: str, key: tuple[int, ...]) -> str:
         return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
 
@@ -189,7 +201,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "fragment_packages": FRAGMENT_PACKAGES,
         **{name: getattr(helpers, name) for name in (
             "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
-            "columns", "head_symbol",
+            "columns", "head_symbol", "qn_names", "qn_label",
         )},
     }
     sheet = env.get_template("sheet.tex")
