@@ -24,6 +24,8 @@ Recipe file (TOML)::
     max_j = "3/2"
     [recouple4]                 # <(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J>: leaves in the range
     max_j = 1
+    [lsjj]                      # LS<->jj of two spin-1/2 particles: every configuration with l in the range
+    max_j = 3
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5.
 """
@@ -146,8 +148,8 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("3j", 0, 8),
         FamilyRange("6j", 0, 8),
         FamilyRange("9j", 0, 4),
-        FamilyRange("recouple3", 1, 3),
-        FamilyRange("recouple4", 1, 1),
+        FamilyRange("recouple3", 1, 2),
+        FamilyRange("lsjj", 0, 6),
     ),
 )
 

@@ -89,6 +89,7 @@ class Section:
     grid: tuple[tuple[Entry | None, ...], ...] = ()
     row_anchors: tuple[str, ...] = ()
     params: tuple[tuple[str, int], ...] = ()
+    column_tex: tuple[str, ...] = ()  # matrix layout: a LaTeX label per column when numbers do not say it
 
 
 @dataclass(frozen=True, slots=True)

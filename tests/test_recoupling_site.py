@@ -27,7 +27,7 @@ from tablegen.recipe import DEFAULT_RECIPE, FamilyRange, Recipe, estimate_size
 from tablegen.values import ExactSum, Surd
 from tablegen.verify import verify_site
 
-RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2, the default recipe's range
+RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2 (the default recipe stops at 1)
 
 
 @pytest.fixture(scope="module")
@@ -161,7 +161,7 @@ def test_page_data_and_latex(built):
     assert doc["family"] == "recouple3" and len(doc["rows"]) == len(table.entries)
     tex = files[table.tex].decode("utf-8")
     assert tex.count("\\begin{longtable}") == len(table.sections)
-    assert "j_{12} \\backslash j_{23}" in tex
+    assert "{}j_{12} \\backslash j_{23}" in tex
     # values.txt lists every recoupling value under its kind
     values = files["values.txt"].decode("utf-8")
     assert sum(1 for line in values.splitlines() if line.startswith("recouple3 ")) == len(
@@ -175,8 +175,11 @@ def test_size_estimate_is_the_exact_count():
         assert estimate_size(Recipe(families=(FamilyRange("recouple3", lo, hi),)))["recouple3"] == n
 
 
-def test_default_recipe_has_the_family():
-    assert DEFAULT_RECIPE.family("recouple3") == RANGE
+def test_default_recipe_has_the_families():
+    # within the site's size budget: three leaves 1/2 <= j <= 1, LS-jj for l <= 3; recouple4 only on request
+    assert DEFAULT_RECIPE.family("recouple3") == FamilyRange("recouple3", 1, 2)
+    assert DEFAULT_RECIPE.family("lsjj") == FamilyRange("lsjj", 0, 6)
+    assert DEFAULT_RECIPE.family("recouple4") is None
 
 
 def test_a_built_site_verifies(tmp_path):
@@ -312,3 +315,133 @@ def test_four_leaf_entries_equal_the_9j_formula_and_link_to_it(built4):
     tex = files[plan.tables_of("recouple4")[0].tex].decode("utf-8")
     assert "(j_{12}, j_{34}) \\backslash (j_{13}, j_{24})" in tex
     assert "& (1/2, 1/2)" in tex or "& (1, 0)" in tex
+
+
+# -- two-particle LS <-> jj: a page per configuration -------------------------------------------------------
+@pytest.fixture(scope="module")
+def built_lsjj():
+    recipe = Recipe(title="LS-jj test", families=(FamilyRange("9j", 0, 4), DEFAULT_RECIPE.family("lsjj")))
+    plan = plan_site(recipe)
+    book = compute_values(plan, jobs=1)
+    _, outputs = render_outputs(plan, book)
+    return plan, book, dict(outputs)
+
+
+def test_lsjj_pages_cover_the_configurations(built_lsjj):
+    plan, _, files = built_lsjj
+    names = {t.title.split(" for ")[1].split(" (")[0] for t in plan.tables_of("lsjj")}
+    assert {"s²", "sp", "p²", "pd", "d²", "pf", "df", "f²", "pp′", "dd′"} <= names
+    page = files[next(t.page for t in plan.tables_of("lsjj") if " p² " in t.title + " ")].decode("utf-8")
+    assert "(l s)j" in page  # the coupling order is stated
+    assert "Pauli-allowed" in page  # and the normalisation of equivalent particles
+    # columns are term symbols: 3P2 as ^3 P_2 in MathML and LaTeX
+    assert '<th scope="col"><math><msup><mrow></mrow><mn>3</mn></msup><msub><mi mathvariant="normal">P</mi><mn>2</mn>' in page
+    tex = files[next(t.tex for t in plan.tables_of("lsjj") if " p² " in t.title + " ")].decode("utf-8")
+    assert "{}^{3}\\mathrm{P}_{2}" in tex and "(j_1, j_2) \\backslash (L, S)" in tex
+
+
+def test_lsjj_site_values_are_the_engine_matrices(built_lsjj):
+    # the site shows exactly the matrices of lsjj_matrices, whose p^2 and pd entries tests/test_lsjj.py
+    # checks against Condon and Shortley (1935) and Cowan (1981), from memory
+    from tablegen.recoupling.lsjj import lsjj_matrices
+
+    plan, book, _ = built_lsjj
+    seen = 0
+    for table in plan.tables_of("lsjj"):
+        shells, l1, l2 = (table.param(n) // 2 for n in ("shells", "l1", "l2"))
+        mats = {m.J: m for m in lsjj_matrices(l1, l2, equivalent=shells == 1)}
+        assert len(mats) == len(table.sections)
+        for s in table.sections:
+            m = mats[dict(s.params)["J"] // 2]
+            assert s.rows == m.rows and s.columns == tuple((2 * L, S2) for L, S2 in m.columns)
+            for r, line in enumerate(s.grid):
+                for c, e in enumerate(line):
+                    assert book[("lsjj", e.key)].value == m.entries[r][c]
+                    seen += 1
+    assert seen == 404
+
+
+def test_lsjj_two_shell_entries_agree_with_sympy_9j(built_lsjj):
+    # reference library: sympy.physics.wigner.wigner_9j, exactly, with the factor of Edmonds 1957, eq. 6.4.2
+    import sympy
+    from sympy.physics.wigner import wigner_9j
+
+    plan, book, _ = built_lsjj
+    for table in plan.tables_of("lsjj"):
+        if table.param("shells") != 4:
+            continue
+        for e in table.entries:
+            _, l1, l2, j1, j2, J, L, S = (sympy.Rational(x, 2) for x in e.key)
+            want = sympy.sqrt((2 * j1 + 1) * (2 * j2 + 1) * (2 * L + 1) * (2 * S + 1)) * wigner_9j(
+                l1, sympy.Rational(1, 2), j1, l2, sympy.Rational(1, 2), j2, L, S, J, prec=None)
+            assert sympy.simplify(book[("lsjj", e.key)].value.to_sympy() - want) == 0, e.key
+
+
+def test_lsjj_matrices_orthogonal_and_linked(built_lsjj):
+    # common practice, no source: orthogonal; cells link to their 9j where the 9j pages hold it
+    plan, book, files = built_lsjj
+    nine = family("9j")
+    linked = 0
+    for table in plan.tables_of("lsjj"):
+        for s in table.sections:
+            n = len(s.rows)
+            assert n == len(s.columns)
+            m = [[book[("lsjj", s.grid[r][c].key)].value for c in range(n)] for r in range(n)]
+            for a, b in itertools.combinations_with_replacement(range(n), 2):
+                total = ExactSum()
+                for k in range(n):
+                    total += m[a][k] * m[b][k]
+                assert total == (1 if a == b else 0), (table.id, s.anchor)
+            for e in s.entries:
+                from tablegen.kinds.lsjj import ninej_of_lsjj
+
+                assert e.source == nine.layout.locate(nine, plan.recipe.family("9j"), ninej_of_lsjj(e.key))
+                linked += e.source is not None
+    assert linked > 50  # with 9j for j <= 2: the s, p and d configurations mostly
+    check = LinkCheck(plan)
+    for path, data in files.items():
+        check.add(path, data)
+    assert check.finish() > 0
+
+
+def test_lsjj_sheet_compiles(built_lsjj, tmp_path):
+    pdflatex = shutil.which("pdflatex")
+    if pdflatex is None:
+        pytest.skip("pdflatex not found: LaTeX of the LS-jj tables NOT compiled")
+    plan, _, files = built_lsjj
+    table = next(t for t in plan.tables_of("lsjj") if t.param("l1") == 6 and t.param("shells") == 2)  # ff'
+    (tmp_path / "sheet.tex").write_bytes(files[table.tex_sheet])
+    (tmp_path / table.tex.split("/", 1)[1]).write_bytes(files[table.tex])
+    proc = subprocess.run([pdflatex, "-interaction=nonstopmode", "-halt-on-error", "sheet.tex"], cwd=tmp_path,
+                          capture_output=True, text=True, errors="replace", timeout=300)
+    assert proc.returncode == 0, proc.stdout[-3000:]
+
+
+def test_lsjj_kind_rules():
+    from tablegen.errors import QuantumNumberError
+    from tablegen.kinds import kind
+
+    k = kind("lsjj")
+    with pytest.raises(QuantumNumberError, match="shells"):
+        k.parse((3, 1, 1, "1/2", "3/2", 1, 1, 0), None)
+    # p^2 3P1 is allowed, 1P1 is not (L + S odd); j1 = j2 = 3/2 with J = 1 is not antisymmetric
+    assert k.value(1, 1, 1, "1/2", "3/2", 1, 1, 1)
+    assert str(k.zero_rule(k.parse((1, 1, 1, "1/2", "3/2", 1, 1, 0), None))).startswith("pauli:")
+    assert str(k.zero_rule(k.parse((1, 1, 1, "3/2", "3/2", 1, 1, 1), None))).startswith("pauli:")
+    # two shells: 1P1 is a term of pp', and <(3/2, 3/2); 1 | 3P1> vanishes with every coupling allowed
+    assert k.value(2, 1, 1, "1/2", "3/2", 1, 1, 0)
+    assert str(k.zero_rule(k.parse((2, 1, 1, "3/2", "3/2", 1, 1, 1), None))).startswith("cancellation:")
+
+
+def test_four_leaf_sheet_compiles(built4, tmp_path):
+    # labels of two numbers, (1/2, 1), start the rows: the sheet must still compile
+    pdflatex = shutil.which("pdflatex")
+    if pdflatex is None:
+        pytest.skip("pdflatex not found: LaTeX of the four-leaf tables NOT compiled")
+    plan, _, files = built4
+    table = plan.tables_of("recouple4")[-1]
+    (tmp_path / "sheet.tex").write_bytes(files[table.tex_sheet])
+    (tmp_path / table.tex.split("/", 1)[1]).write_bytes(files[table.tex])
+    proc = subprocess.run([pdflatex, "-interaction=nonstopmode", "-halt-on-error", "sheet.tex"], cwd=tmp_path,
+                          capture_output=True, text=True, errors="replace", timeout=300)
+    assert proc.returncode == 0, proc.stdout[-3000:]

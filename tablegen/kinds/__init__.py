@@ -26,7 +26,7 @@ class ZeroRule:
     """Why a value is exactly zero: a short rule id and a sentence.
 
     ids: "triangle", "triad-sum", "m-sum", "m-range", "parity", "symmetry",
-    "cancellation".  ``str()`` gives "id: text", the form the CLI prints.
+    "cancellation", "pauli" (equivalent particles).  ``str()`` gives "id: text", the form the CLI prints.
     """
 
     id: str

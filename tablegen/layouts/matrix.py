@@ -36,6 +36,7 @@ class MatrixBlock:
     rows: tuple[int, ...]
     columns: tuple[int, ...]
     key: Callable[[int, int], "tuple[int, ...] | None"] = field(repr=False)
+    column_tex: tuple[str, ...] = ()  # a LaTeX label per column (a term symbol) instead of the numbers
 
 
 @dataclass(frozen=True, slots=True)
@@ -52,11 +53,14 @@ class MatrixLayout:
     count: "Callable[[int, int], int] | None" = field(default=None, repr=False)  # exact cells for (min 2j, max 2j)
     source: str = ""
     source_key: "Callable[[tuple[int, ...]], tuple[int, ...]] | None" = field(default=None, repr=False)
+    page_params: int = 1  # how many leading block parameters a page is named by
+    page_name: "Callable[[tuple[tuple[str, int], ...]], str] | None" = field(default=None, repr=False)  # 'pd'
 
     name = "matrix"
 
-    def page_path(self, key: str, value: int) -> str:
-        return f"{key}/{self.block[0]}-{file_code(value)}.html"
+    def page_path(self, key: str, *values: int) -> str:
+        """'key/j1-1.5.html'; with two page parameters 'key/l1-1_l2-2.html'."""
+        return f"{key}/" + "_".join(f"{n}-{file_code(v)}" for n, v in zip(self.block, values)) + ".html"
 
     @staticmethod
     def block_anchor(params: tuple[tuple[str, int], ...]) -> str:
@@ -88,7 +92,7 @@ class MatrixLayout:
 
     def page_pattern(self, key: str) -> str:
         """The page path with argument names in braces (the jump box fills them in)."""
-        return f"{key}/{self.block[0]}-{{{self.block[0]}}}.html"
+        return f"{key}/" + "_".join(f"{n}-{{{n}}}" for n in self.block[: self.page_params]) + ".html"
 
     def anchor_pattern(self) -> str:
         block = ",".join(f"{n}={{{n}}}" for n in self.block)
@@ -107,7 +111,7 @@ class MatrixLayout:
         pick = lambda names: at[names[0]] if len(names) == 1 else tuple(at[n] for n in names)  # noqa: E731
         anchor = self.anchor(self.block_anchor(tuple((n, at[n]) for n in self.block)), pick(self.row_names),
                              pick(self.column_names))
-        return f"{self.page_path(fam.key, at[self.block[0]])}#{anchor}"
+        return f"{self.page_path(fam.key, *(at[n] for n in self.block[: self.page_params]))}#{anchor}"
 
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
         source = lookup(self.source) if self.source else None
@@ -115,9 +119,9 @@ class MatrixLayout:
         for block in self.blocks(f.min_tj, f.max_tj):
             if tuple(n for n, _ in block.params) != self.block:
                 raise AssertionError(f"plan: a {fam.key} block has parameters {block.params}, not {self.block}")
-            by_page.setdefault(block.params[0], []).append(block)
+            by_page.setdefault(block.params[: self.page_params], []).append(block)
         pages, tables = [], []
-        for (name, value), blocks in by_page.items():
+        for named, blocks in by_page.items():
             sections = []
             for block in blocks:
                 anchor = self.block_anchor(block.params)
@@ -144,12 +148,16 @@ class MatrixLayout:
                     grid=tuple(grid),
                     row_anchors=tuple(self.row_anchor(anchor, tr) for tr in block.rows),
                     params=block.params,
+                    column_tex=block.column_tex,
                 ))
-            tid = f"{fam.key}-{name}-{file_code(value)}"
-            title = f"{fam.title} for {name} = {half(value)}"
-            path = self.page_path(fam.key, value)
+            tid = f"{fam.key}-" + "_".join(f"{n}-{file_code(v)}" for n, v in named)
+            words = ", ".join(f"{n} = {half(v)}" for n, v in named)
+            if self.page_name:
+                words = f"{self.page_name(named)} ({words})"
+            title = f"{fam.title} for {words}"
+            path = self.page_path(fam.key, *(v for _, v in named))
             tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=tuple(sections),
-                                params=((name, value),), kind=fam.kind, **table_files(tid)))
+                                params=named, kind=fam.kind, **table_files(tid)))
             index = Link(f"all {fam.nav_label} pages", f"index.html#{fam.key}")
-            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.nav_label}, {name} = {half(value)}"))
+            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.nav_label}, {words}"))
         return chain(pages), tables

@@ -13,7 +13,8 @@ from typing import Iterator
 from ..layouts import MatrixBlock
 from ..triads import is_triad
 
-__all__ = ["recouple3_blocks", "recouple3_count", "recouple4_blocks", "recouple4_count"]
+__all__ = ["recouple3_blocks", "recouple3_count", "recouple4_blocks", "recouple4_count",
+           "lsjj_blocks", "lsjj_count", "configuration"]
 
 
 def _between(ta: int, tb: int) -> range:
@@ -70,3 +71,46 @@ def recouple4_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
 def recouple4_count(lo: int, hi: int) -> int:
     """Exact number of cells of recouple4_blocks(lo, hi)."""
     return sum(len(rows) * len(cols) for *_, rows, cols in _recouple4_shapes(lo, hi))
+
+
+# -- two-particle LS <-> jj: a page per configuration (shells, l1, l2), a block per J -----------------------
+def _lsjj_shapes(lo: int, hi: int):
+    """(shells, l1, l2, J, rows, columns): equivalent l^2 (shells 1) after the two-shell l l' (shells 2)."""
+    from .lsjj import lsjj_labels
+
+    ls = [t // 2 for t in range(lo, hi + 1) if t % 2 == 0]  # whole l in the range
+    for l1 in ls:
+        for l2 in ls:
+            for shells in ((2, 1) if l1 == l2 else (2,) if l2 > l1 else ()):
+                for J in range(0, l1 + l2 + 2):
+                    rows, cols = lsjj_labels(l1, l2, J, shells == 1)
+                    if rows:
+                        yield shells, l1, l2, J, tuple(rows), tuple((2 * L, S2) for L, S2 in cols)
+
+
+def lsjj_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """l1 <= l2 with whole l in [lo, hi] (doubled), each l^2 also as equivalent particles: rows (j1, j2),
+    columns (L, S) labelled by their term symbols."""
+    from .lsjj import term_symbol
+
+    for shells, l1, l2, J, rows, cols in _lsjj_shapes(lo, hi):
+        tex = tuple(term_symbol(tL // 2, tS, J, latex=True) for tL, tS in cols)
+        head = (2 * shells, 2 * l1, 2 * l2)
+        yield MatrixBlock((("shells", 2 * shells), ("l1", 2 * l1), ("l2", 2 * l2), ("J", 2 * J)), rows, cols,
+                          lambda r, c, a=head, tJ=2 * J: a + r + (tJ,) + c, column_tex=tex)
+
+
+def lsjj_count(lo: int, hi: int) -> int:
+    """Exact number of cells of lsjj_blocks(lo, hi)."""
+    return sum(len(r) * len(c) for *_, r, c in _lsjj_shapes(lo, hi))
+
+
+def configuration(params: tuple[tuple[str, int], ...]) -> str:
+    """'pd', 'pp′' (two shells) or 'p²' (one shell) for page parameters shells, l1, l2."""
+    from .lsjj import ORBITAL_LETTERS
+
+    shells, l1, l2 = (v // 2 for _, v in params[:3])
+    a, b = (ORBITAL_LETTERS[l].lower() if l < len(ORBITAL_LETTERS) else f"[l={l}]" for l in (l1, l2))
+    if shells == 1:
+        return f"{a}²"
+    return f"{a}{b}′" if l1 == l2 else f"{a}{b}"

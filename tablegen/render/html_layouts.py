@@ -215,10 +215,12 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
     """A list of the family's pages with their counts (classes and matrix layouts)."""
     items = []
     for t in site.plan.tables_of(fam.key):
-        (name, value), = t.params
+        names, values = zip(*t.params)
+        named = getattr(fam.layout, "page_name", None)
         items.append({
-            "name": name,
-            "label": _qn(value),
+            "name": ", ".join(names),
+            "label": ", ".join(_qn(v) for v in values),
+            "text": named(t.params) if named else ", ".join(f"{n} = {_qn(v)}" for n, v in t.params),
             "href": relative_url(page.path, t.page),
             "count": len(t.entries),
             "forms": sum(e.forms for e in t.entries),
@@ -243,8 +245,9 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
         for r, tr in enumerate(s.rows):
             cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
             rows.append(Row(label=_dash(label(tr)), anchor=s.row_anchors[r], cells=cells))
-        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_dash(label(c)) for c in s.columns],
-                         "rows": rows})
+        columns = ([Markup(mathml.math(mathml.value_inner(t))) for t in s.column_tex] if s.column_tex
+                   else [_dash(label(c)) for c in s.columns])
+        sections.append({"title": s.title, "anchor": s.anchor, "columns": columns, "rows": rows})
     source = site.plan.family(fam.layout.source) if fam.layout.source in site.keys else None
     return site.render(
         "matrix.html",
