@@ -136,6 +136,19 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         "j1 = j2); the jj state for j1 < j2 is the antisymmetric normalised [|j1 j2; J⟩ − (−1)^(j1+j2−J) "
         "|j2 j1; J⟩]/√2, so its row is √2 times the 9j expression.",
     ),
+    Family(
+        key="state3",
+        kind="state3",
+        title="Coupled states of three angular momenta",
+        nav_label="States of 3",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "M"), row=("j12", "J"), column=("m1", "m2", "m3"),
+                            blocks=_rt.states3_blocks, count=_rt.states3_count, page_params=3,
+                            row_ket=_rt.coupled_ket3, column_ket=_rt.product_ket3),
+        convention="Tree ((j1 j2)j12 j3)J, Condon–Shortley phase: ⟨j1 m1; j2 m2; j3 m3 | (j1 j2)j12, j3; J M⟩ = "
+        "⟨j1 m1; j2 m2 | j12 m1+m2⟩ ⟨j12 m1+m2; j3 m3 | J M⟩. Coupled states are written |(j1 j2)j12, j3; J, M⟩, "
+        "product states |j1, m1⟩|j2, m2⟩|j3, m3⟩. Rows: coupled states in product states; columns: product "
+        "states in coupled states (the matrix is real and orthogonal, its inverse the transpose).",
+    ),
 )
 # -- end of the recoupling families ---------------------------------------------------------------------------
 

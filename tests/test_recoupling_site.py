@@ -445,3 +445,107 @@ def test_four_leaf_sheet_compiles(built4, tmp_path):
     proc = subprocess.run([pdflatex, "-interaction=nonstopmode", "-halt-on-error", "sheet.tex"], cwd=tmp_path,
                           capture_output=True, text=True, errors="replace", timeout=300)
     assert proc.returncode == 0, proc.stdout[-3000:]
+
+
+# -- coupled states of three angular momenta, both directions ------------------------------------------------
+@pytest.fixture(scope="module")
+def built_states():
+    plan = plan_site(Recipe(title="States test", families=(FamilyRange("state3", 1, 2),)))  # leaves 1/2 and 1
+    book = compute_values(plan, jobs=1)
+    return plan, book, dict(render_outputs(plan, book)[1])
+
+
+def test_state_coefficients_are_cg_products_and_orthogonal(built_states):
+    # reference library: sympy.physics.quantum.cg.CG, exactly; orthogonality: common practice, no source
+    import sympy
+    from sympy.physics.quantum.cg import CG
+
+    plan, book, _ = built_states
+    cells = 0
+    for table in plan.tables_of("state3"):
+        for s in table.sections:
+            n = len(s.rows)
+            assert n == len(s.columns), s.anchor  # as many coupled states as product states for each M
+            for line in s.grid:
+                for e in line:
+                    j1, j2, j3, j12, J, M, m1, m2, m3 = (sympy.Rational(x, 2) for x in e.key)
+                    want = CG(j1, m1, j2, m2, j12, m1 + m2).doit() * CG(j12, m1 + m2, j3, m3, J, M).doit()
+                    assert sympy.simplify(book[("state3", e.key)].value.to_sympy() - want) == 0, e.key
+                    cells += 1
+            m = [[book[("state3", e.key)].value for e in line] for line in s.grid]
+            for a, b in itertools.combinations_with_replacement(range(n), 2):
+                total = ExactSum()
+                for k in range(n):
+                    total += m[k][a] * m[k][b]
+                assert total == (1 if a == b else 0), s.anchor
+    assert cells == 479
+
+
+def _uncoupled(j1, j2, j3, j12, J, M):
+    """{(2 m1, 2 m2, 2 m3): coefficient} of sympy's uncouple of |((j1 j2)j12 j3)J M>."""
+    import sympy
+    from sympy.physics.quantum import TensorProduct
+    from sympy.physics.quantum.spin import JzKetCoupled, uncouple
+
+    ket = uncouple(JzKetCoupled(J, M, (j1, j2, j3), ((1, 2, j12), (1, 3, J))))
+    out = {}
+    for term in sympy.Add.make_args(sympy.expand(ket)):
+        coeff, product = term.as_independent(TensorProduct)
+        out[tuple(int(2 * k.m) for k in product.args)] = coeff
+    return out
+
+
+@pytest.mark.parametrize("leaves", [(1, 1, 1), (2, 2, 2)])
+def test_both_expansions_agree_with_sympy_uncouple(built_states, leaves):
+    # reference library: sympy.physics.quantum.spin.uncouple of a JzKetCoupled with the coupling
+    # ((1,2,j12), (1,3,J)), i.e. the tree ((j1 j2)j12 j3)J (sympy 1.12 fails on mixed leaves such as
+    # (1/2, 1, 1/2), so three spins 1/2 and three spins 1 are compared)
+    import sympy
+    from tablegen.render.kets import expansions
+
+    plan, book, files = built_states
+    layout = family("state3").layout
+    table = next(t for t in plan.tables_of("state3") if tuple(v for _, v in t.params) == leaves)
+    compared = 0
+    for s in table.sections:
+        by_row, by_column = expansions(layout, s, lambda e: book[("state3", e.key)])
+        j1, j2, j3, M = (sympy.Rational(v, 2) for _, v in s.params)
+        ket_of = {layout.column_ket(s.params, c)[0]: c for c in s.columns}
+        for r, (t12, tJ) in enumerate(s.rows):
+            want = _uncoupled(j1, j2, j3, sympy.Rational(t12, 2), sympy.Rational(tJ, 2), M)
+            got = {ket_of[t.ket_text]: (-1 if t.negative else 1) * abs(t.value.value.to_sympy()) for t in by_row[r].terms}
+            assert set(got) == {k for k, v in want.items() if v != 0}, (s.anchor, r)
+            for k, v in got.items():
+                assert sympy.simplify(v - want[k]) == 0, (s.anchor, r, k)
+                compared += 1
+        # a column written in coupled states reads the same coefficients down the column (the transpose)
+        for c, x in enumerate(by_column):
+            assert [t.value for t in x.terms] == [book[("state3", line[c].key)] for line in s.grid
+                                                  if book[("state3", line[c].key)].value]
+    assert compared > 5
+    page = files[table.page].decode("utf-8")
+    assert "<h3>Rows written out</h3>" in page and "<h3>Columns written out</h3>" in page
+
+
+def test_coupled_and_product_kets_cannot_be_confused(built_states):
+    plan, _, files = built_states
+    table = next(t for t in plan.tables_of("state3") if t.params == (("j1", 1), ("j2", 2), ("j3", 1)))
+    page = files[table.page].decode("utf-8")
+    assert "|(1/2 1)3/2, 1/2; 2, 2⟩" in page  # coupled: (j1 j2)j12, j3; J, M
+    assert "|1/2, 1/2⟩|1, 1⟩|1/2, 1/2⟩" in page  # product: one |j, m⟩ per angular momentum
+    tex = files[table.tex].decode("utf-8")
+    assert "\\vert (\\frac{1}{2}\\,1)\\frac{3}{2},\\,\\frac{1}{2};\\,2,\\,2\\rangle &=" in tex
+    assert "Rows written out:" in tex and "Columns written out:" in tex
+
+
+def test_states_sheet_compiles(built_states, tmp_path):
+    pdflatex = shutil.which("pdflatex")
+    if pdflatex is None:
+        pytest.skip("pdflatex not found: LaTeX of the coupled states NOT compiled")
+    plan, _, files = built_states
+    table = plan.tables_of("state3")[-1]  # three spins 1: the longest expansions
+    (tmp_path / "sheet.tex").write_bytes(files[table.tex_sheet])
+    (tmp_path / table.tex.split("/", 1)[1]).write_bytes(files[table.tex])
+    proc = subprocess.run([pdflatex, "-interaction=nonstopmode", "-halt-on-error", "sheet.tex"], cwd=tmp_path,
+                          capture_output=True, text=True, errors="replace", timeout=300)
+    assert proc.returncode == 0, proc.stdout[-3000:]

@@ -7,6 +7,7 @@ from .lsjj import LSJJ
 from .ninej import NINEJ
 from .recoupling import RECOUPLE3, RECOUPLE4
 from .sixj import RACAH_W, SIXJ
+from .states import STATE3
 from .threej import CG, THREEJ
 
-KINDS: tuple[Kind, ...] = (CG, THREEJ, SIXJ, RACAH_W, NINEJ, RECOUPLE3, RECOUPLE4, LSJJ)
+KINDS: tuple[Kind, ...] = (CG, THREEJ, SIXJ, RACAH_W, NINEJ, RECOUPLE3, RECOUPLE4, LSJJ, STATE3)

@@ -55,6 +55,10 @@ class MatrixLayout:
     source_key: "Callable[[tuple[int, ...]], tuple[int, ...]] | None" = field(default=None, repr=False)
     page_params: int = 1  # how many leading block parameters a page is named by
     page_name: "Callable[[tuple[tuple[str, int], ...]], str] | None" = field(default=None, repr=False)  # 'pd'
+    # rows and columns that are states: (block params, label) -> (text, LaTeX) of the ket; with both set, the
+    # page writes each row out in the column states and each column in the row states (a real orthogonal matrix)
+    row_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
+    column_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
 
     name = "matrix"
 

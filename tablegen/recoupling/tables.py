@@ -14,7 +14,8 @@ from ..layouts import MatrixBlock
 from ..triads import is_triad
 
 __all__ = ["recouple3_blocks", "recouple3_count", "recouple4_blocks", "recouple4_count",
-           "lsjj_blocks", "lsjj_count", "configuration"]
+           "lsjj_blocks", "lsjj_count", "configuration",
+           "states3_blocks", "states3_count", "coupled_ket3", "product_ket3"]
 
 
 def _between(ta: int, tb: int) -> range:
@@ -114,3 +115,64 @@ def configuration(params: tuple[tuple[str, int], ...]) -> str:
     if shells == 1:
         return f"{a}²"
     return f"{a}{b}′" if l1 == l2 else f"{a}{b}"
+
+
+# -- coupled states of three angular momenta in product states, tree ((j1 j2)j12 j3)J ----------------------
+def _states3_shapes(lo: int, hi: int):
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                top = j1 + j2 + j3
+                for tM in range(top, -top - 1, -2):
+                    rows = tuple((t12, tJ) for t12 in _between(j1, j2) for tJ in _between(t12, j3) if tJ >= abs(tM))
+                    cols = tuple((m1, m2, tM - m1 - m2) for m1 in range(j1, -j1 - 1, -2) for m2 in range(j2, -j2 - 1, -2)
+                                 if abs(tM - m1 - m2) <= j3)
+                    yield j1, j2, j3, tM, rows, cols
+
+
+def states3_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, j2, j3, M), leaves in [lo, hi] (doubled): rows the coupled states (j12, J), columns
+    the product states (m1, m2, m3) with m1 + m2 + m3 = M."""
+    for j1, j2, j3, tM, rows, cols in _states3_shapes(lo, hi):
+        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("M", tM)), rows, cols,
+                          lambda r, c, a=(j1, j2, j3), tM=tM: a + r + (tM,) + c)
+
+
+def states3_count(lo: int, hi: int) -> int:
+    """Exact number of cells of states3_blocks(lo, hi)."""
+    return sum(len(r) * len(c) for *_, r, c in _states3_shapes(lo, hi))
+
+
+def _tex(t: int) -> str:
+    from ..spins import half_text
+
+    text = half_text(t)
+    if "/" not in text:
+        return text
+    sign, body = ("-", text[1:]) if text.startswith("-") else ("", text)
+    n, d = body.split("/")
+    return f"{sign}\\frac{{{n}}}{{{d}}}"
+
+
+def coupled_ket3(params: tuple[tuple[str, int], ...], row: tuple[int, int]) -> tuple[str, str]:
+    """(text, LaTeX) of the coupled ket |(j1 j2)j12, j3; J, M>."""
+    from ..spins import half_text as h
+
+    p = dict(params)
+    t12, tJ = row
+    text = f"|({h(p['j1'])} {h(p['j2'])}){h(t12)}, {h(p['j3'])}; {h(tJ)}, {h(p['M'])}⟩"
+    tex = (f"\\vert ({_tex(p['j1'])}\\,{_tex(p['j2'])}){_tex(t12)},\\,{_tex(p['j3'])};\\,"
+           f"{_tex(tJ)},\\,{_tex(p['M'])}\\rangle")
+    return text, tex
+
+
+def product_ket3(params: tuple[tuple[str, int], ...], column: tuple[int, int, int]) -> tuple[str, str]:
+    """(text, LaTeX) of the product ket |j1, m1>|j2, m2>|j3, m3>."""
+    from ..spins import half_text as h
+
+    p = dict(params)
+    pairs = tuple(zip((p["j1"], p["j2"], p["j3"]), column))
+    text = "".join(f"|{h(j)}, {h(m)}⟩" for j, m in pairs)
+    tex = "".join(f"\\vert {_tex(j)},\\,{_tex(m)}\\rangle" for j, m in pairs)
+    return text, tex

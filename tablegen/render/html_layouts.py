@@ -229,6 +229,26 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
 
 
 # -- matrix -------------------------------------------------------------------------------
+def _state_lists(site: "_Site", fam: Family, section: Section) -> tuple[list[dict], list[dict]]:
+    """Each row written in column states and each column in row states: MathML pieces and the LaTeX."""
+    from .kets import expansions
+
+    def shown(e: Entry):
+        return site.shown(fam.kind, e.key)
+
+    def html(x) -> dict:
+        terms = []
+        for i, t in enumerate(x.terms):
+            sign = "−" if t.negative else ("+" if i else "")
+            coeff = "" if t.unit else mathml.value_inner(t.value.tex_abs)
+            terms.append(Term(sign, Markup(coeff + mathml.text(t.ket_text.replace("-", "−")))))
+        return {"ket": Markup(mathml.equation(mathml.text(x.ket_text.replace("-", "−")), "")), "terms": terms,
+                "tex": x.tex}
+
+    by_row, by_column = expansions(fam.layout, section, shown)
+    return [html(x) for x in by_row], [html(x) for x in by_column]
+
+
 def _names_html(names: tuple[str, ...]) -> Markup:
     """'j12' or '(j12, j34)' with each name set as a quantum number."""
     inner = Markup(", ").join(qn_html(n) for n in names)
@@ -247,7 +267,8 @@ def _matrix_page(site: "_Site", page: Page) -> bytes:
             rows.append(Row(label=_dash(label(tr)), anchor=s.row_anchors[r], cells=cells))
         columns = ([Markup(mathml.math(mathml.value_inner(t))) for t in s.column_tex] if s.column_tex
                    else [_dash(label(c)) for c in s.columns])
-        sections.append({"title": s.title, "anchor": s.anchor, "columns": columns, "rows": rows})
+        states = _state_lists(site, fam, s) if fam.layout.row_ket and fam.layout.column_ket else None
+        sections.append({"title": s.title, "anchor": s.anchor, "columns": columns, "rows": rows, "states": states})
     source = site.plan.family(fam.layout.source) if fam.layout.source in site.keys else None
     return site.render(
         "matrix.html",

@@ -171,6 +171,17 @@ class _Helpers:
         """A label's value(s): '3/2' or '(1, 3/2)'."""
         return half_text(value) if isinstance(value, int) else "(" + ", ".join(half_text(v) for v in value) + ")"
 
+    @staticmethod
+    def kets(layout, section: Section, value) -> tuple[list[str], list[str]]:
+        """LaTeX equations: each row written in column states, each column in row states (empty lists when
+        the layout's rows and columns are not states)."""
+        if not (getattr(layout, "row_ket", None) and getattr(layout, "column_ket", None)):
+            return [], []
+        from .kets import expansions
+
+        by_row, by_column = expansions(layout, section, value)
+        return [x.tex for x in by_row], [x.tex for x in by_column]
+
     def symbol(self, kind_key: str, key: tuple[int, ...]) -> str:
         return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
 
@@ -201,7 +212,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "fragment_packages": FRAGMENT_PACKAGES,
         **{name: getattr(helpers, name) for name in (
             "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
-            "columns", "head_symbol", "qn_names", "qn_label",
+            "columns", "head_symbol", "qn_names", "qn_label", "kets",
         )},
     }
     sheet = env.get_template("sheet.tex")
