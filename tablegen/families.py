@@ -106,7 +106,8 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         title="Recoupling of three angular momenta",
         nav_label="Recoupling 3",
         layout=MatrixLayout(block=("j1", "j2", "j3", "J"), row="j12", column="j23", blocks=recouple3_blocks,
-                            count=recouple3_count, source="6j", source_key=sixj_of_recouple3),
+                            count=recouple3_count, source="6j", source_key=sixj_of_recouple3,
+                            ranged=("j1", "j2", "j3")),
         convention="⟨(j1 j2)j12, j3; J | j1, (j2 j3)j23; J⟩ = (−1)^(j1+j2+j3+J) √((2j12+1)(2j23+1)) "
         "{j1 j2 j12; j3 J j23}, Condon–Shortley phase; rows j12 (coupled first), columns j23. "
         "Real and orthogonal: the inverse matrix is the transpose.",
@@ -118,7 +119,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         nav_label="Recoupling 4",
         layout=MatrixLayout(block=("j1", "j2", "j3", "j4", "J"), row=("j12", "j34"), column=("j13", "j24"),
                             blocks=recouple4_blocks, count=recouple4_count, source="9j",
-                            source_key=ninej_of_recouple4),
+                            source_key=ninej_of_recouple4, ranged=("j1", "j2", "j3", "j4")),
         convention="⟨(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J⟩ = "
         "√((2j12+1)(2j34+1)(2j13+1)(2j24+1)) {j1 j2 j12; j3 j4 j34; j13 j24 J}, Condon–Shortley phase; "
         "rows (j12, j34), columns (j13, j24). Real and orthogonal: the inverse matrix is the transpose.",
@@ -130,7 +131,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         nav_label="LS–jj",
         layout=MatrixLayout(block=("shells", "l1", "l2", "J"), row=("j1", "j2"), column=("L", "S"),
                             blocks=_rt.lsjj_blocks, count=_rt.lsjj_count, source="9j", source_key=ninej_of_lsjj,
-                            page_params=3, page_name=_rt.configuration),
+                            page_params=3, page_name=_rt.configuration, ranged=("l1", "l2")),
         convention=_LSJJ_CONVENTION + " Two shells (shells = 2: sp, pd, pp′ …): every term. Equivalent particles "
         "(shells = 1: p², d² …): only the Pauli-allowed terms (L + S even) and pairs (j1 ≤ j2, J even when "
         "j1 = j2); the jj state for j1 < j2 is the antisymmetric normalised [|j1 j2; J⟩ − (−1)^(j1+j2−J) "
@@ -143,7 +144,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         nav_label="States of 3",
         layout=MatrixLayout(block=("j1", "j2", "j3", "M"), row=("j12", "J"), column=("m1", "m2", "m3"),
                             blocks=_rt.states3_blocks, count=_rt.states3_count, page_params=3,
-                            row_ket=_rt.coupled_ket3, column_ket=_rt.product_ket3),
+                            row_ket=_rt.coupled_ket3, column_ket=_rt.product_ket3, ranged=("j1", "j2", "j3")),
         convention="Tree ((j1 j2)j12 j3)J, Condon–Shortley phase: ⟨j1 m1; j2 m2; j3 m3 | (j1 j2)j12, j3; J M⟩ = "
         "⟨j1 m1; j2 m2 | j12 m1+m2⟩ ⟨j12 m1+m2; j3 m3 | J M⟩. Coupled states are written |(j1 j2)j12, j3; J, M⟩, "
         "product states |j1, m1⟩|j2, m2⟩|j3, m3⟩. Rows: coupled states in product states; columns: product "

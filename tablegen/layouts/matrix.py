@@ -54,6 +54,7 @@ class MatrixLayout:
     source: str = ""
     source_key: "Callable[[tuple[int, ...]], tuple[int, ...]] | None" = field(default=None, repr=False)
     page_params: int = 1  # how many leading block parameters a page is named by
+    ranged: tuple[str, ...] = ()  # the block parameters the recipe's range bounds (all of them when empty)
     page_name: "Callable[[tuple[tuple[str, int], ...]], str] | None" = field(default=None, repr=False)  # 'pd'
     # rows and columns that are states: (block params, label) -> (text, LaTeX) of the ket; with both set, the
     # page writes each row out in the column states and each column in the row states (a real orthogonal matrix)
@@ -104,7 +105,8 @@ class MatrixLayout:
 
     @property
     def params(self) -> tuple[str, ...]:
-        return self.block
+        """Block parameters that must lie in the family's range (the jump box checks them)."""
+        return self.ranged or self.block
 
     def locate(self, fam: "Family", f: "FamilyRange", key: tuple[int, ...]) -> "str | None":
         """'page#anchor' of the value with doubled ``key`` if this family's range holds it, else None."""
