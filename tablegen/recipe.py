@@ -26,6 +26,8 @@ Recipe file (TOML)::
     max_j = 1
     [lsjj]                      # LS<->jj of two spin-1/2 particles: every configuration with l in the range
     max_j = 3
+    [state3]                    # coupled states ((j1 j2)j12 j3)J in product states and back: leaves in the range
+    max_j = "1/2"
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5.
 """
