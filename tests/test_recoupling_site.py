@@ -168,11 +168,22 @@ def test_page_data_and_latex(built):
         {e.key for t in plan.tables_of("recouple3") for e in t.entries})
 
 
-def test_size_estimate_is_the_exact_count():
-    for lo, hi in ((0, 3), (1, 4), (2, 2)):
-        plan = plan_site(Recipe(families=(FamilyRange("recouple3", lo, hi),)))
-        n = sum(len(t.entries) for t in plan.tables)
-        assert estimate_size(Recipe(families=(FamilyRange("recouple3", lo, hi),)))["recouple3"] == n
+@pytest.mark.parametrize("key, lo, hi", [("recouple3", 0, 3), ("recouple3", 1, 4), ("recouple3", 2, 2),
+                                          ("recouple4", 1, 2), ("lsjj", 0, 6), ("lsjj", 1, 3), ("state3", 1, 2)])
+def test_size_estimate_is_the_exact_count(key, lo, hi):
+    recipe = Recipe(families=(FamilyRange(key, lo, hi),))
+    n = sum(len(t.entries) for t in plan_site(recipe).tables)
+    assert estimate_size(recipe)[key] == n > 0
+
+
+def test_size_guard_refuses_a_huge_recoupling_recipe():
+    # beyond the exactly counted span the guard extrapolates (span^6) instead of enumerating every block
+    from tablegen.errors import TooLargeError
+    from tablegen.recipe import check_size
+
+    with pytest.raises(TooLargeError, match="recouple3: ~"):
+        check_size(Recipe(families=(FamilyRange("recouple3", 0, 200),)))
+    assert check_size(Recipe(families=(FamilyRange("recouple3", 0, 4),)))["recouple3"] == 1359
 
 
 def test_default_recipe_has_the_families():
