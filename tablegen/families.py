@@ -89,6 +89,72 @@ def named_symbol(k: Kind, values: "tuple[str, ...] | None" = None) -> str:
     return f"{n.brackets[0]}{'; '.join(parts)}{n.brackets[1]}"
 
 
+# -- recoupling families (issue 10): matrices between two coupling trees, cells linked to their symbol ---------
+from .kinds.lsjj import ninej_of_lsjj  # noqa: E402
+from .kinds.recoupling import ninej_of_recouple4, sixj_of_recouple3  # noqa: E402
+from .recoupling import tables as _rt  # noqa: E402
+from .recoupling.tables import recouple3_blocks, recouple3_count, recouple4_blocks, recouple4_count  # noqa: E402
+
+_LSJJ_CONVENTION = (
+    "⟨(l1 s1)j1, (l2 s2)j2; J | (l1 l2)L, (s1 s2)S; J⟩ = √((2j1+1)(2j2+1)(2L+1)(2S+1)) "
+    "{l1 1/2 j1; l2 1/2 j2; L S J}, s1 = s2 = 1/2. Each particle is coupled in the order (l s)j; the order "
+    "(s l)j multiplies row (j1, j2) by (−1)^(l1+l2+1−j1−j2). Rows (j1, j2), columns the terms ^(2S+1)L_J."
+)
+
+RECOUPLING_FAMILIES: tuple[Family, ...] = (
+    Family(
+        key="recouple3",
+        kind="recouple3",
+        title="Recoupling of three angular momenta",
+        nav_label="Recoupling 3",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "J"), row="j12", column="j23", blocks=recouple3_blocks,
+                            count=recouple3_count, source="6j", source_key=sixj_of_recouple3,
+                            ranged=("j1", "j2", "j3")),
+        convention="⟨(j1 j2)j12, j3; J | j1, (j2 j3)j23; J⟩ = (−1)^(j1+j2+j3+J) √((2j12+1)(2j23+1)) "
+        "{j1 j2 j12; j3 J j23}, Condon–Shortley phase; rows j12 (coupled first), columns j23. "
+        "Real and orthogonal: the inverse matrix is the transpose.",
+    ),
+    Family(
+        key="recouple4",
+        kind="recouple4",
+        title="Recoupling of four angular momenta",
+        nav_label="Recoupling 4",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "j4", "J"), row=("j12", "j34"), column=("j13", "j24"),
+                            blocks=recouple4_blocks, count=recouple4_count, source="9j",
+                            source_key=ninej_of_recouple4, ranged=("j1", "j2", "j3", "j4")),
+        convention="⟨(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J⟩ = "
+        "√((2j12+1)(2j34+1)(2j13+1)(2j24+1)) {j1 j2 j12; j3 j4 j34; j13 j24 J}, Condon–Shortley phase; "
+        "rows (j12, j34), columns (j13, j24). Real and orthogonal: the inverse matrix is the transpose.",
+    ),
+    Family(
+        key="lsjj",
+        kind="lsjj",
+        title="LS–jj transformation of two particles",
+        nav_label="LS–jj",
+        layout=MatrixLayout(block=("shells", "l1", "l2", "J"), row=("j1", "j2"), column=("L", "S"),
+                            blocks=_rt.lsjj_blocks, count=_rt.lsjj_count, source="9j", source_key=ninej_of_lsjj,
+                            page_params=3, page_name=_rt.configuration, ranged=("l1", "l2")),
+        convention=_LSJJ_CONVENTION + " Two shells (shells = 2: sp, pd, pp′ …): every term. Equivalent particles "
+        "(shells = 1: p², d² …): only the Pauli-allowed terms (L + S even) and pairs (j1 ≤ j2, J even when "
+        "j1 = j2); the jj state for j1 < j2 is the antisymmetric normalised [|j1 j2; J⟩ − (−1)^(j1+j2−J) "
+        "|j2 j1; J⟩]/√2, so its row is √2 times the 9j expression.",
+    ),
+    Family(
+        key="state3",
+        kind="state3",
+        title="Coupled states of three angular momenta",
+        nav_label="States of 3",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "M"), row=("j12", "J"), column=("m1", "m2", "m3"),
+                            blocks=_rt.states3_blocks, count=_rt.states3_count, page_params=3,
+                            row_ket=_rt.coupled_ket3, column_ket=_rt.product_ket3, ranged=("j1", "j2", "j3")),
+        convention="Tree ((j1 j2)j12 j3)J, Condon–Shortley phase: ⟨j1 m1; j2 m2; j3 m3 | (j1 j2)j12, j3; J M⟩ = "
+        "⟨j1 m1; j2 m2 | j12 m1+m2⟩ ⟨j12 m1+m2; j3 m3 | J M⟩. Coupled states are written |(j1 j2)j12, j3; J, M⟩, "
+        "product states |j1, m1⟩|j2, m2⟩|j3, m3⟩. Rows: coupled states in product states; columns: product "
+        "states in coupled states (the matrix is real and orthogonal, its inverse the transpose).",
+    ),
+)
+# -- end of the recoupling families ---------------------------------------------------------------------------
+
 FAMILIES: tuple[Family, ...] = (
     Family(
         key="cg",
@@ -134,7 +200,7 @@ FAMILIES: tuple[Family, ...] = (
         "Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),
-)
+) + RECOUPLING_FAMILIES
 
 FAMILY_KEYS = tuple(f.key for f in FAMILIES)
 _BY_KEY = {f.key: f for f in FAMILIES}

@@ -22,6 +22,14 @@ Recipe file (TOML)::
     max_j = 4
     [9j]
     max_j = 2
+    [recouple3]                 # <(j1 j2)j12, j3; J | j1, (j2 j3)j23; J>: leaves j1, j2, j3 in the range
+    max_j = "3/2"
+    [recouple4]                 # <(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J>: leaves in the range
+    max_j = 1
+    [lsjj]                      # LS<->jj of two spin-1/2 particles: every configuration with l in the range
+    max_j = 3
+    [state3]                    # coupled states ((j1 j2)j12 j3)J in product states and back: leaves in the range
+    max_j = "1/2"
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5 (ASCII digits,
 at most 40 characters, no j above limits.ENGINE_MAX_J).  The file is UTF-8,
@@ -144,6 +152,8 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("3j", 0, 8),
         FamilyRange("6j", 0, 8),
         FamilyRange("9j", 0, 4),
+        FamilyRange("recouple3", 1, 2),
+        FamilyRange("lsjj", 0, 6),
     ),
 )
 
@@ -324,7 +334,9 @@ def recipe_from_options(options: dict[str, str], recipe_file: str | None = None)
     if not chosen_families:
         option = "/".join(f"--{key}" for key in FAMILIES)
         raise RecipeError(option, "none", "the recipe tabulates no family (give a range to one of them)")
-    return Recipe(recipe.title, recipe.notes, recipe.digits, recipe.latex_style, chosen_families)
+    from dataclasses import replace
+
+    return replace(recipe, families=chosen_families)
 
 
 # -- size guard (sizeguard.py) ---------------------------------------------------
@@ -333,6 +345,8 @@ def estimate_size(recipe: Recipe) -> dict[str, int]:
     from .sizeguard import estimate_size as estimate
 
     return estimate(recipe)
+
+
 
 
 def check_size(recipe: Recipe, allow_large: bool = False) -> dict[str, int]:

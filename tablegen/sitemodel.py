@@ -49,6 +49,7 @@ class Entry:
     partners: classes layout only: path#anchor of each other class of the same value
         (Regge partners) on the site.
     beyond: classes layout only: how many forms of the same value have a j beyond the range.
+    source: path#anchor of the value this one is made of (the 6j of a recoupling coefficient), if tabulated.
     """
 
     key: tuple[int, ...]
@@ -56,6 +57,7 @@ class Entry:
     twin: str | None = None
     forms: int = 0
     kind: str = ""
+    source: str | None = None
     partners: tuple[str, ...] = ()
     beyond: int = 0
     filed_by: "Callable | None" = field(default=None, repr=False, compare=False)  # classes: the class's symmetries
@@ -97,6 +99,7 @@ class Section:
     grid: tuple[tuple[Entry | None, ...], ...] = ()
     row_anchors: tuple[str, ...] = ()
     params: tuple[tuple[str, int], ...] = ()
+    column_tex: tuple[str, ...] = ()  # matrix layout: a LaTeX label per column when numbers do not say it
 
 
 @dataclass(frozen=True, slots=True)

@@ -153,6 +153,29 @@ def _class_count(kind, layout, lo: int, hi: int) -> tuple[int, int, int]:
     return classes, classes, symbols
 
 
+# -- families whose layout counts its own cells (the recoupling matrices, issue 10) ------------------------------
+#: Above this many distinct j a layout's exact count is itself too slow; the guard then extrapolates.
+_COUNT_SPAN = 13
+
+
+def _layout_count(f) -> int | None:
+    """Exact cells of a family whose layout record has a ``count``; None for the others.
+
+    For a span of j beyond _COUNT_SPAN the count at that span is scaled by the
+    span to the sixth power, enough for a guard against runaway builds.
+    """
+    from .families import family
+
+    count = getattr(family(f.family).layout, "count", None)
+    if count is None:
+        return None
+    n = f.max_tj - f.min_tj + 1
+    if n <= _COUNT_SPAN:
+        return count(f.min_tj, f.max_tj)
+    return int(count(f.min_tj, f.min_tj + _COUNT_SPAN - 1) * (n / _COUNT_SPAN) ** 6)
+# -- end of the layout counts ----------------------------------------------------------------------------------
+
+
 def estimate_family(f) -> FamilyEstimate:
     """The estimate of one FamilyRange."""
     from .families import family
@@ -163,7 +186,8 @@ def estimate_family(f) -> FamilyEstimate:
     if fam.layout.name == "classes":
         low, high, symbols = _class_count(k, fam.layout, f.min_tj, f.max_tj)
     else:
-        low = high = _grid_count(f.min_tj, f.max_tj)
+        counted = _layout_count(f)  # a layout that counts its own cells (matrix families)
+        low = high = _grid_count(f.min_tj, f.max_tj) if counted is None else counted
         symbols = 0
     per_value = sum(kind(name).seconds(f.max_tj) for name in fam.kinds) + SECONDS_PER_VALUE
     seconds = low * per_value + symbols * SECONDS_PER_SYMBOL

@@ -394,8 +394,13 @@ def test_time_is_estimated_from_j():
 
 # -- per-kind one-value limits -------------------------------------------------------------------
 def _at(k, tj: int) -> list[str]:
-    """Arguments with every j = tj/2 and every m = 0 (an allowed symbol when tj is even)."""
-    return [str(tj // 2) if i in k.j_positions else "0" for i in range(len(k.arguments))]
+    """Arguments with every j = tj/2 and every m = 0 (an allowed symbol when tj is even);
+    arguments that are neither take a fixed allowed value (the LS-jj kind's number of shells)."""
+    fixed = _FIXED.get(k.key, {})
+    return [fixed.get(a, str(tj // 2) if i in k.j_positions else "0") for i, a in enumerate(k.arguments)]
+
+
+_FIXED = {"lsjj": {"shells": "2"}}
 
 
 @pytest.mark.parametrize("k", KINDS, ids=[k.key for k in KINDS])

@@ -504,7 +504,7 @@ def test_two_column_manuscript_prints_every_family_in_its_floats(small, compiled
 
 
 def test_booklet_prints_title_literally_and_values(small, compiled):
-    plan = small[0]
+    plan, files = small[0], small[3]
     text = _pdf_text(compiled["booklet.tex"])
     # The title as typed, but for characters drawn as accents or rules by TeX
     # (^ ~ _ print as accents/rules) and the ones the fonts lack.

@@ -57,7 +57,7 @@ class ZeroRule(_Record):
     """Why a value is exactly zero: a short rule id and a sentence.
 
     ids: "triangle", "triad-sum", "m-sum", "m-range", "parity", "symmetry",
-    "cancellation".  ``str()`` gives "id: text", the form the CLI prints.
+    "cancellation", "pauli" (equivalent particles).  ``str()`` gives "id: text", the form the CLI prints.
     """
 
     __slots__ = ("id", "text")

@@ -29,6 +29,8 @@ if TYPE_CHECKING:  # pragma: no cover
 
 __all__ = ["ClassesLayout", "symbols_in_range"]
 
+_WHERE: dict = {}  # (family key, min_tj, max_tj) -> {canonical form: page path}; see ClassesLayout._where
+
 
 def symbols_in_range(k: "Kind", min_tj: int, max_tj: int) -> Iterator[tuple[int, ...]]:
     """Every symbol of kind ``k`` with each j in [min_tj, max_tj] and every triad allowed, in order.
@@ -108,15 +110,35 @@ class ClassesLayout:
                 out.append(forms[0][0])
         return sorted(out), full
 
-    def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
+    def locate(self, fam: "Family", f: "FamilyRange", key: tuple[int, ...]) -> "str | None":
+        """'page#anchor' of the class holding the symbol ``key`` (doubled) if this build tabulates it, else None.
+
+        The ordinary symmetries only permute a symbol's entries, so its class is on the site exactly when
+        the symbol itself has every j in the range; the page is where ``plan`` files the class.
+        """
         k = fam.kind_record
-        groups = k.notation.groups
-        first, second = self._lead(k)
-        canons = self.classes_in_range(k, f.min_tj, f.max_tj)
-        # pages: one per first entry, split into parts of at most page_rows classes
-        parts: list[tuple[int, int, list[list[tuple[int, ...]]]]] = []  # (lead, part, sections)
+        if not all(f.min_tj <= key[i] <= f.max_tj for i in k.j_positions):
+            return None
+        canon = self.filed_by(*key)[0][0]
+        path = self._where(fam, f).get(canon)
+        return None if path is None else f"{path}#{self.anchor(canon, k.notation.groups)}"
+
+    def _where(self, fam: "Family", f: "FamilyRange") -> dict:
+        """Canonical form -> page path, as ``plan`` lays the pages out (kept per family and range)."""
+        memo = (fam.key, f.min_tj, f.max_tj)
+        if memo not in _WHERE:
+            first = self._lead(fam.kind_record)[0]
+            _WHERE[memo] = {
+                c: self.page_path(fam.key, first, lead, part)
+                for lead, part, secs in self._parts(fam.kind_record, f) for rows in secs for c in rows
+            }
+        return _WHERE[memo]
+
+    def _parts(self, k: "Kind", f: "FamilyRange") -> list:
+        """[(lead, part, sections)]: one page per first entry, split into parts of at most page_rows classes."""
+        parts: list[tuple[int, int, list[list[tuple[int, ...]]]]] = []
         by_lead: dict[int, dict[int, list[tuple[int, ...]]]] = {}
-        for c in canons:
+        for c in self.classes_in_range(k, f.min_tj, f.max_tj):
             by_lead.setdefault(c[0], {}).setdefault(c[1], []).append(c)
         for lead, sections in by_lead.items():
             current: list[list[tuple[int, ...]]] = []
@@ -130,6 +152,13 @@ class ClassesLayout:
                     current.append(chunk)
                     size += len(chunk)
             parts.append((lead, part, current))
+        return parts
+
+    def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
+        k = fam.kind_record
+        groups = k.notation.groups
+        first, second = self._lead(k)
+        parts = self._parts(k, f)
         where = {c: self.page_path(fam.key, first, lead, part) for lead, part, secs in parts for rows in secs for c in rows}
         within = lambda t: all(f.min_tj <= t[i] <= f.max_tj for i in k.j_positions)  # noqa: E731
         pages, tables = [], []

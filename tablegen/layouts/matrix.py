@@ -27,12 +27,16 @@ __all__ = ["MatrixLayout", "MatrixBlock"]
 
 @dataclass(frozen=True, slots=True)
 class MatrixBlock:
-    """One matrix: doubled parameters, row and column labels (doubled), and the key of a cell."""
+    """One matrix: doubled parameters, row and column labels (doubled), and the key of a cell.
+
+    A label is one doubled value, or a tuple of them when the layout names several arguments.
+    """
 
     params: tuple[tuple[str, int], ...]
     rows: tuple[int, ...]
     columns: tuple[int, ...]
     key: Callable[[int, int], "tuple[int, ...] | None"] = field(repr=False)
+    column_tex: tuple[str, ...] = ()  # a LaTeX label per column (a term symbol) instead of the numbers
 
 
 @dataclass(frozen=True, slots=True)
@@ -40,43 +44,90 @@ class MatrixLayout:
     """Rows and columns labelled by quantum numbers; each cell one value."""
 
     block: tuple[str, ...]  # kind argument names fixed per matrix ("j1", "j2", "j3", "J")
-    row: str  # kind argument labelling the rows ("j12", "mp")
-    column: str  # kind argument labelling the columns ("j23", "m")
+    row: "str | tuple[str, ...]"  # kind argument(s) labelling the rows ("j12", "mp"; ("j12", "j34"))
+    column: "str | tuple[str, ...]"  # kind argument(s) labelling the columns ("j23", "m"; ("j13", "j24"))
     blocks: Callable[[int, int], Iterable[MatrixBlock]] = field(repr=False)  # (min 2j, max 2j) -> blocks in order
     count_noun: str = "values"
+    # the family whose value each cell is made of (the 6j of a recoupling coefficient), and the map from a
+    # cell's key to that value's key: a cell links to it where that family's layout tabulates it in this build
+    count: "Callable[[int, int], int] | None" = field(default=None, repr=False)  # exact cells for (min 2j, max 2j)
+    source: str = ""
+    source_key: "Callable[[tuple[int, ...]], tuple[int, ...]] | None" = field(default=None, repr=False)
+    page_params: int = 1  # how many leading block parameters a page is named by
+    ranged: tuple[str, ...] = ()  # the block parameters the recipe's range bounds (all of them when empty)
+    page_name: "Callable[[tuple[tuple[str, int], ...]], str] | None" = field(default=None, repr=False)  # 'pd'
+    # rows and columns that are states: (block params, label) -> (text, LaTeX) of the ket; with both set, the
+    # page writes each row out in the column states and each column in the row states (a real orthogonal matrix)
+    row_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
+    column_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
 
     name = "matrix"
 
-    def page_path(self, key: str, value: int) -> str:
-        return f"{key}/{self.block[0]}-{file_code(value)}.html"
+    def page_path(self, key: str, *values: int) -> str:
+        """'key/j1-1.5.html'; with two page parameters 'key/l1-1_l2-2.html'."""
+        return f"{key}/" + "_".join(f"{n}-{file_code(v)}" for n, v in zip(self.block, values)) + ".html"
 
     @staticmethod
     def block_anchor(params: tuple[tuple[str, int], ...]) -> str:
         return ",".join(f"{n}={half(v)}" for n, v in params)
 
-    def anchor(self, block: str, tr: int, tc: int) -> str:
-        return f"{block};{self.row}={half(tr)},{self.column}={half(tc)}"
+    @property
+    def row_names(self) -> tuple[str, ...]:
+        return (self.row,) if isinstance(self.row, str) else tuple(self.row)
+
+    @property
+    def column_names(self) -> tuple[str, ...]:
+        return (self.column,) if isinstance(self.column, str) else tuple(self.column)
+
+    @staticmethod
+    def label(value: "int | tuple[int, ...]") -> str:
+        """A row or column label as text: '3/2', or '(1, 3/2)' for a label of two arguments."""
+        return half(value) if isinstance(value, int) else f"({', '.join(half(v) for v in value)})"
+
+    @staticmethod
+    def _assign(names: tuple[str, ...], value: "int | tuple[int, ...]") -> str:
+        values = (value,) if isinstance(value, int) else value
+        return ",".join(f"{n}={half(v)}" for n, v in zip(names, values))
+
+    def anchor(self, block: str, tr: "int | tuple[int, ...]", tc: "int | tuple[int, ...]") -> str:
+        return f"{block};{self._assign(self.row_names, tr)},{self._assign(self.column_names, tc)}"
+
+    def row_anchor(self, block: str, tr: "int | tuple[int, ...]") -> str:
+        return f"row:{block};{self._assign(self.row_names, tr)}"
 
     def page_pattern(self, key: str) -> str:
         """The page path with argument names in braces (the jump box fills them in)."""
-        return f"{key}/{self.block[0]}-{{{self.block[0]}}}.html"
+        return f"{key}/" + "_".join(f"{n}-{{{n}}}" for n in self.block[: self.page_params]) + ".html"
 
     def anchor_pattern(self) -> str:
         block = ",".join(f"{n}={{{n}}}" for n in self.block)
-        return f"{block};{self.row}={{{self.row}}},{self.column}={{{self.column}}}"
+        return f"{block};" + ",".join(f"{n}={{{n}}}" for n in self.row_names + self.column_names)
 
     @property
     def params(self) -> tuple[str, ...]:
-        return self.block
+        """Block parameters that must lie in the family's range (the jump box checks them)."""
+        return self.ranged or self.block
+
+    def locate(self, fam: "Family", f: "FamilyRange", key: tuple[int, ...]) -> "str | None":
+        """'page#anchor' of the value with doubled ``key`` if this family's range holds it, else None."""
+        k = fam.kind_record
+        at = dict(zip(k.arguments, key))
+        if not all(f.min_tj <= key[i] <= f.max_tj for i in k.j_positions):
+            return None
+        pick = lambda names: at[names[0]] if len(names) == 1 else tuple(at[n] for n in names)  # noqa: E731
+        anchor = self.anchor(self.block_anchor(tuple((n, at[n]) for n in self.block)), pick(self.row_names),
+                             pick(self.column_names))
+        return f"{self.page_path(fam.key, *(at[n] for n in self.block[: self.page_params]))}#{anchor}"
 
     def plan(self, fam: "Family", f: "FamilyRange", lookup: Callable) -> tuple[list[Page], list[Table]]:
+        source = lookup(self.source) if self.source else None
         by_page: dict[tuple[str, int], list[MatrixBlock]] = {}
         for block in self.blocks(f.min_tj, f.max_tj):
             if tuple(n for n, _ in block.params) != self.block:
                 raise AssertionError(f"plan: a {fam.key} block has parameters {block.params}, not {self.block}")
-            by_page.setdefault(block.params[0], []).append(block)
+            by_page.setdefault(block.params[: self.page_params], []).append(block)
         pages, tables = [], []
-        for (name, value), blocks in by_page.items():
+        for named, blocks in by_page.items():
             sections = []
             for block in blocks:
                 anchor = self.block_anchor(block.params)
@@ -85,7 +136,11 @@ class MatrixLayout:
                     line = []
                     for tc in block.columns:
                         key = block.key(tr, tc)
-                        e = None if key is None else Entry(key, self.anchor(anchor, tr, tc), None, 0, fam.kind)
+                        if key is None:
+                            e = None
+                        else:
+                            link = source[0].layout.locate(source[0], source[1], self.source_key(key)) if source else None
+                            e = Entry(key, self.anchor(anchor, tr, tc), None, 0, fam.kind, link)
                         line.append(e)
                         if e is not None:
                             entries.append(e)
@@ -97,14 +152,18 @@ class MatrixLayout:
                     rows=block.rows,
                     columns=block.columns,
                     grid=tuple(grid),
-                    row_anchors=tuple(f"row:{anchor};{self.row}={half(tr)}" for tr in block.rows),
+                    row_anchors=tuple(self.row_anchor(anchor, tr) for tr in block.rows),
                     params=block.params,
+                    column_tex=block.column_tex,
                 ))
-            tid = f"{fam.key}-{name}-{file_code(value)}"
-            title = f"{fam.title} for {name} = {half(value)}"
-            path = self.page_path(fam.key, value)
+            tid = f"{fam.key}-" + "_".join(f"{n}-{file_code(v)}" for n, v in named)
+            words = ", ".join(f"{n} = {half(v)}" for n, v in named)
+            if self.page_name:
+                words = f"{self.page_name(named)} ({words})"
+            title = f"{fam.title} for {words}"
+            path = self.page_path(fam.key, *(v for _, v in named))
             tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=tuple(sections),
-                                params=((name, value),), kind=fam.kind, **table_files(tid)))
+                                params=named, kind=fam.kind, **table_files(tid)))
             index = Link(f"all {fam.nav_label} pages", f"index.html#{fam.key}")
-            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.nav_label}, {name} = {half(value)}"))
+            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.nav_label}, {words}"))
         return chain(pages), tables

@@ -27,9 +27,12 @@ from typing import NamedTuple
 from ..errors import QuantumNumberError
 from ..spins import half_text
 from ..values.surd import Surd
-from .coefficient import recoupling
+from functools import lru_cache
 
-__all__ = ["LsJjMatrix", "lsjj_matrices", "term_symbol", "ORBITAL_LETTERS"]
+from .coefficient import evaluate, pair_of, tree_allowed
+from .paths import plan_path
+
+__all__ = ["LsJjMatrix", "lsjj_matrices", "lsjj_entry", "lsjj_labels", "term_symbol", "ORBITAL_LETTERS"]
 
 #: Spectroscopic letters for L = 0, 1, 2, ... (J is skipped by convention).
 ORBITAL_LETTERS = "SPDFGHIKLMNOQRTUV"
@@ -88,25 +91,45 @@ def lsjj_matrices(l1: int, l2: int, *, equivalent: bool = False, order: str = "l
         raise QuantumNumberError("l2", l2, f"equivalent particles need l2 = l1 = {l1}")
     out = []
     for J in range(0, l1 + l2 + 2):
-        rows = [(a, b) for a in _js(l1) for b in _js(l2) if abs(a - b) <= 2 * J <= a + b]
-        cols = [(L, S2) for L in range(abs(l1 - l2), l1 + l2 + 1) for S2 in (0, 2) if abs(L - S2 // 2) <= J <= L + S2 // 2]
-        if equivalent:
-            rows = [(a, b) for a, b in rows if a < b or (a == b and J % 2 == 0)]
-            cols = [(L, S2) for L, S2 in cols if (L + S2 // 2) % 2 == 0]
+        rows, cols = lsjj_labels(l1, l2, J, equivalent)
         if not rows:
             continue
         entries = []
         for a, b in rows:
-            line = []
-            for L, S2 in cols:
-                v = recoupling(_JJ[order], _LS, l1=l1, l2=l2, s1="1/2", s2="1/2", j1=half_text(a),
-                               j2=half_text(b), L=L, S=half_text(S2), J=J)
-                if equivalent and a != b:
-                    v = v * Surd._trusted(1, 2, 1)
-                line.append(v)
-            entries.append(tuple(line))
+            entries.append(tuple(lsjj_entry(2 * l1, 2 * l2, a, b, 2 * J, 2 * L, S2, equivalent, order)
+                                 for L, S2 in cols))
         out.append(LsJjMatrix(l1, l2, J, order, equivalent, tuple(rows), tuple(cols), tuple(entries)))
     return tuple(out)
+
+
+def lsjj_labels(l1: int, l2: int, J: int, equivalent: bool) -> tuple[list[tuple[int, int]], list[tuple[int, int]]]:
+    """Rows (doubled j1, j2) and columns (L, doubled S) of one J (l1, l2, J, L whole numbers)."""
+    rows = [(a, b) for a in _js(l1) for b in _js(l2) if abs(a - b) <= 2 * J <= a + b]
+    cols = [(L, S2) for L in range(abs(l1 - l2), l1 + l2 + 1) for S2 in (0, 2) if abs(L - S2 // 2) <= J <= L + S2 // 2]
+    if equivalent:
+        rows = [(a, b) for a, b in rows if a < b or (a == b and J % 2 == 0)]
+        cols = [(L, S2) for L, S2 in cols if (L + S2 // 2) % 2 == 0]
+    return rows, cols
+
+
+def lsjj_entry(tl1: int, tl2: int, tj1: int, tj2: int, tJ: int, tL: int, tS: int, equivalent: bool = False,
+               order: str = "ls") -> Surd:
+    """One entry <(l1 s1)j1, (l2 s2)j2; J | (l1 l2)L, (s1 s2)S; J> from doubled values (s1 = s2 = 1/2).
+
+    With ``equivalent`` the row is the antisymmetric normalised state (j1 < j2: sqrt(2) times the
+    9j entry; j1 = j2: the entry itself); the caller keeps to Pauli-allowed rows and columns.
+    """
+    pair = pair_of(_JJ[order], _LS)
+    env = {"l1": tl1, "l2": tl2, "s1": 1, "s2": 1, "j1": tj1, "j2": tj2, "L": tL, "S": tS, "J": tJ}
+    if not tree_allowed(pair, env):
+        return Surd._trusted(0, 0, 1)
+    v = evaluate(_plan(order), env)
+    return v * Surd._trusted(1, 2, 1) if equivalent and tj1 != tj2 else v
+
+
+@lru_cache(maxsize=2)
+def _plan(order: str):
+    return plan_path(pair_of(_JJ[order], _LS))
 
 
 def _js(l: int) -> tuple[int, ...]:

@@ -29,6 +29,8 @@ VALUES_HEADER = (
     "# one line per value: family, arguments in the order of the symbol, exact value\n"
     "# families: cg <j1 m1; j2 m2 | J M>, 3j (j1 j2 j3; m1 m2 m3), 6j {j1 j2 j3; j4 j5 j6},\n"
     "#           w W(a b c d; e f), 9j rows in order; Condon-Shortley phase\n"
+    "#           recouple3 j1 j2 j3 J j12 j23, recouple4 j1 j2 j3 j4 J j12 j34 j13 j24: recoupling coefficients\n"
+    "#           lsjj shells l1 l2 j1 j2 J L S: LS-jj coefficients (shells 1: equivalent particles)\n"
 )
 
 

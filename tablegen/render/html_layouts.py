@@ -20,6 +20,7 @@ from ..sitemodel import Entry, Page, Section
 from ..spins import half_text
 from . import mathml
 from .latex import latex_symbol
+from .env import qn_html
 from .links import relative_url
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -49,6 +50,7 @@ class Cell:
     twin: str | None  # relative link to the same number in the twin family
     zero: bool
     why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
+    source: str | None = None  # relative link to the value this one is made of (matrix layout's source)
 
 
 @dataclass(frozen=True)
@@ -125,6 +127,7 @@ def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell
         twin=relative_url(page.path, entry.twin) if entry.twin else None,
         zero=not s.value,
         why=s.zero_rule,
+        source=relative_url(page.path, entry.source) if entry.source else None,
     )
 
 
@@ -293,10 +296,12 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
     """A list of the family's pages with their counts (matrix layout)."""
     items = []
     for t in site.plan.tables_of(fam.key):
-        (name, value), = t.params
+        names, values = zip(*t.params)
+        named = getattr(fam.layout, "page_name", None)
         items.append({
-            "name": name,
-            "label": _qn(value),
+            "name": ", ".join(names),
+            "label": ", ".join(_qn(v) for v in values),
+            "text": named(t.params) if named else ", ".join(f"{n} = {_qn(v)}" for n, v in t.params),
             "href": relative_url(page.path, t.page),
             "count": len(t.entries),
             "forms": sum(e.forms for e in t.entries),
@@ -305,23 +310,57 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
 
 
 # -- matrix -------------------------------------------------------------------------------
+def _state_lists(site: "_Site", fam: Family, section: Section) -> tuple[list[dict], list[dict]]:
+    """Each row written in column states and each column in row states: MathML pieces and the LaTeX."""
+    from .kets import expansions
+
+    def shown(e: Entry):
+        return site.shown(fam.kind, e.key)
+
+    def html(x) -> dict:
+        terms = []
+        for i, t in enumerate(x.terms):
+            sign = "−" if t.negative else ("+" if i else "")
+            coeff = "" if t.unit else mathml.value_inner(t.value.tex_abs)
+            terms.append(Term(sign, Markup(coeff + mathml.text(t.ket_text.replace("-", "−")))))
+        return {"ket": Markup(mathml.equation(mathml.text(x.ket_text.replace("-", "−")), "")), "terms": terms,
+                "tex": x.tex}
+
+    by_row, by_column = expansions(fam.layout, section, shown)
+    return [html(x) for x in by_row], [html(x) for x in by_column]
+
+
+def _names_html(names: tuple[str, ...]) -> Markup:
+    """'j12' or '(j12, j34)' with each name set as a quantum number."""
+    inner = Markup(", ").join(qn_html(n) for n in names)
+    return inner if len(names) == 1 else Markup("({})").format(inner)
+
+
 def _matrix_page(site: "_Site", page: Page) -> bytes:
     table = site.plan.table(page.tables[0])
     fam = site.plan.family(table.family)
     sections = []
     for s in table.sections:
         rows = []
+        label = fam.layout.label
         for r, tr in enumerate(s.rows):
             cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
-            rows.append(Row(label=_qn(tr), anchor=s.row_anchors[r], cells=cells))
-        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns], "rows": rows,
+            rows.append(Row(label=_dash(label(tr)), anchor=s.row_anchors[r], cells=cells))
+        columns = ([Markup(mathml.math(mathml.value_inner(t))) for t in s.column_tex] if s.column_tex
+                   else [_dash(label(c)) for c in s.columns])
+        states = _state_lists(site, fam, s) if fam.layout.row_ket and fam.layout.column_ket else None
+        sections.append({"title": s.title, "anchor": s.anchor, "columns": columns, "rows": rows, "states": states,
                          "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params)})
+    source = site.plan.family(fam.layout.source) if fam.layout.source in site.keys else None
     return site.render(
         "matrix.html",
         page,
         table=table,
         fam=fam,
         layout=fam.layout,
+        source_label=source.kind_record.key if source else "",
+        row_head=_names_html(fam.layout.row_names),
+        column_head=_names_html(fam.layout.column_names),
         sections=sections,
         files=site.files(page, table),
         count=len(table.entries),

@@ -209,6 +209,29 @@ class _Helpers:
         per_block = max(1, BLOCK_LINES // len(kind(fam.kind).notation.groups))
         return [entries[i : i + per_block] for i in range(0, len(entries), per_block)]
 
+    @staticmethod
+    def qn_names(names: "str | tuple[str, ...]") -> str:
+        """A label's argument name(s) in LaTeX math: 'j_{12}' or '(j_{12}, j_{34})'."""
+        if isinstance(names, str):
+            return qn_tex(names)
+        return "(" + ", ".join(qn_tex(n) for n in names) + ")"
+
+    @staticmethod
+    def qn_label(value: "int | tuple[int, ...]") -> str:
+        """A label's value(s): '3/2' or '(1, 3/2)'."""
+        return half_text(value) if isinstance(value, int) else "(" + ", ".join(half_text(v) for v in value) + ")"
+
+    @staticmethod
+    def kets(layout, section: Section, value) -> tuple[list[str], list[str]]:
+        """LaTeX equations: each row written in column states, each column in row states (empty lists when
+        the layout's rows and columns are not states)."""
+        if not (getattr(layout, "row_ket", None) and getattr(layout, "column_ket", None)):
+            return [], []
+        from .kets import expansions
+
+        by_row, by_column = expansions(layout, section, value)
+        return [x.tex for x in by_row], [x.tex for x in by_column]
+
     def symbol(self, kind_key: str, key: tuple[int, ...]) -> str:
         return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
 
@@ -234,7 +257,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "fragment_packages": FRAGMENT_PACKAGES,
         **{name: getattr(helpers, name) for name in (
             "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
-            "head_symbol", "plain_convention", "m_rule", "decimal_blocks", "row_blocks",
+            "head_symbol", "plain_convention", "m_rule", "decimal_blocks", "row_blocks", "qn_names", "qn_label", "kets",
         )},
     }
     sheet = env.get_template("sheet.tex")

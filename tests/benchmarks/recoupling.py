@@ -36,7 +36,8 @@ from tablegen.recoupling import recoupling  # noqa: E402
 from tablegen.recoupling import coefficient, moves, paths  # noqa: E402
 from tablegen.recoupling.matrix import assignments  # noqa: E402
 from tablegen.recoupling.trees import Leaf, leaves, parse_tree  # noqa: E402
-from tablegen import coefficients as kernels  # noqa: E402
+from tablegen.kinds import ninej as ninej_kind  # noqa: E402
+from tablegen.kinds import sixj as sixj_kind  # noqa: E402
 
 SHAPES_1 = ["(((a b)e c)f d)J", "((a b)e (c d)f)J"]
 
@@ -58,7 +59,7 @@ def _half(t: int):
 
 def _clear_caches() -> None:
     for f in (moves.reassociate, moves.four_leaf, paths.plan_path, coefficient._pair_cached, coefficient._triads,
-              kernels._sixj_value_cached, kernels._ninej_square):
+              sixj_kind._sixj_value_cached, ninej_kind._ninej_square):
         f.cache_clear()
 
 

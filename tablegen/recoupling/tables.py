@@ -1,0 +1,178 @@
+"""Which recoupling matrices a site shows: the blocks of the recoupling families, and their exact sizes.
+
+Pure combinatorics on doubled ints (the triad rule), no values: the matrix
+layout (tablegen.layouts.matrix) turns the blocks into pages, the recipe's
+size guard uses the counts.  A block holds every allowed intermediate of
+both trees, so each matrix is square and orthogonal.
+"""
+
+from __future__ import annotations
+
+from typing import Iterator
+
+from ..layouts import MatrixBlock
+from ..triads import is_triad
+
+__all__ = ["recouple3_blocks", "recouple3_count", "recouple4_blocks", "recouple4_count",
+           "lsjj_blocks", "lsjj_count", "configuration",
+           "states3_blocks", "states3_count", "coupled_ket3", "product_ket3"]
+
+
+def _between(ta: int, tb: int) -> range:
+    """Doubled values coupling ta and tb can reach."""
+    return range(abs(ta - tb), ta + tb + 1, 2)
+
+
+def _recouple3_shapes(lo: int, hi: int) -> Iterator[tuple[int, int, int, int, tuple[int, ...], tuple[int, ...]]]:
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                totals = sorted({tJ for t12 in _between(j1, j2) for tJ in _between(t12, j3)})
+                for tJ in totals:
+                    rows = tuple(t for t in _between(j1, j2) if is_triad(t, j3, tJ))
+                    cols = tuple(t for t in _between(j2, j3) if is_triad(j1, t, tJ))
+                    yield j1, j2, j3, tJ, rows, cols
+
+
+def recouple3_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, j2, j3, J) with leaves in [lo, hi] (doubled): rows j12, columns j23."""
+    for j1, j2, j3, tJ, rows, cols in _recouple3_shapes(lo, hi):
+        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("J", tJ)), rows, cols,
+                          lambda t12, t23, a=(j1, j2, j3, tJ): a + (t12, t23))
+
+
+def recouple3_count(lo: int, hi: int) -> int:
+    """Exact number of cells of recouple3_blocks(lo, hi)."""
+    return sum(len(rows) * len(cols) for *_, rows, cols in _recouple3_shapes(lo, hi))
+
+
+def _recouple4_shapes(lo: int, hi: int):
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                for j4 in js:
+                    pairs12 = [(a, b) for a in _between(j1, j2) for b in _between(j3, j4)]
+                    pairs13 = [(a, b) for a in _between(j1, j3) for b in _between(j2, j4)]
+                    totals = sorted({tJ for a, b in pairs12 for tJ in _between(a, b)})
+                    for tJ in totals:
+                        rows = tuple(p for p in pairs12 if is_triad(p[0], p[1], tJ))
+                        cols = tuple(p for p in pairs13 if is_triad(p[0], p[1], tJ))
+                        yield j1, j2, j3, j4, tJ, rows, cols
+
+
+def recouple4_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, j2, j3, j4, J) with leaves in [lo, hi] (doubled): rows (j12, j34), columns (j13, j24)."""
+    for j1, j2, j3, j4, tJ, rows, cols in _recouple4_shapes(lo, hi):
+        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("j4", j4), ("J", tJ)), rows, cols,
+                          lambda r, c, a=(j1, j2, j3, j4, tJ): a + r + c)
+
+
+def recouple4_count(lo: int, hi: int) -> int:
+    """Exact number of cells of recouple4_blocks(lo, hi)."""
+    return sum(len(rows) * len(cols) for *_, rows, cols in _recouple4_shapes(lo, hi))
+
+
+# -- two-particle LS <-> jj: a page per configuration (shells, l1, l2), a block per J -----------------------
+def _lsjj_shapes(lo: int, hi: int):
+    """(shells, l1, l2, J, rows, columns): equivalent l^2 (shells 1) after the two-shell l l' (shells 2)."""
+    from .lsjj import lsjj_labels
+
+    ls = [t // 2 for t in range(lo, hi + 1) if t % 2 == 0]  # whole l in the range
+    for l1 in ls:
+        for l2 in ls:
+            for shells in ((2, 1) if l1 == l2 else (2,) if l2 > l1 else ()):
+                for J in range(0, l1 + l2 + 2):
+                    rows, cols = lsjj_labels(l1, l2, J, shells == 1)
+                    if rows:
+                        yield shells, l1, l2, J, tuple(rows), tuple((2 * L, S2) for L, S2 in cols)
+
+
+def lsjj_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """l1 <= l2 with whole l in [lo, hi] (doubled), each l^2 also as equivalent particles: rows (j1, j2),
+    columns (L, S) labelled by their term symbols."""
+    from .lsjj import term_symbol
+
+    for shells, l1, l2, J, rows, cols in _lsjj_shapes(lo, hi):
+        tex = tuple(term_symbol(tL // 2, tS, J, latex=True) for tL, tS in cols)
+        head = (2 * shells, 2 * l1, 2 * l2)
+        yield MatrixBlock((("shells", 2 * shells), ("l1", 2 * l1), ("l2", 2 * l2), ("J", 2 * J)), rows, cols,
+                          lambda r, c, a=head, tJ=2 * J: a + r + (tJ,) + c, column_tex=tex)
+
+
+def lsjj_count(lo: int, hi: int) -> int:
+    """Exact number of cells of lsjj_blocks(lo, hi)."""
+    return sum(len(r) * len(c) for *_, r, c in _lsjj_shapes(lo, hi))
+
+
+def configuration(params: tuple[tuple[str, int], ...]) -> str:
+    """'pd', 'pp′' (two shells) or 'p²' (one shell) for page parameters shells, l1, l2."""
+    from .lsjj import ORBITAL_LETTERS
+
+    shells, l1, l2 = (v // 2 for _, v in params[:3])
+    a, b = (ORBITAL_LETTERS[l].lower() if l < len(ORBITAL_LETTERS) else f"[l={l}]" for l in (l1, l2))
+    if shells == 1:
+        return f"{a}²"
+    return f"{a}{b}′" if l1 == l2 else f"{a}{b}"
+
+
+# -- coupled states of three angular momenta in product states, tree ((j1 j2)j12 j3)J ----------------------
+def _states3_shapes(lo: int, hi: int):
+    js = range(lo, hi + 1)
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                top = j1 + j2 + j3
+                for tM in range(top, -top - 1, -2):
+                    rows = tuple((t12, tJ) for t12 in _between(j1, j2) for tJ in _between(t12, j3) if tJ >= abs(tM))
+                    cols = tuple((m1, m2, tM - m1 - m2) for m1 in range(j1, -j1 - 1, -2) for m2 in range(j2, -j2 - 1, -2)
+                                 if abs(tM - m1 - m2) <= j3)
+                    yield j1, j2, j3, tM, rows, cols
+
+
+def states3_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, j2, j3, M), leaves in [lo, hi] (doubled): rows the coupled states (j12, J), columns
+    the product states (m1, m2, m3) with m1 + m2 + m3 = M."""
+    for j1, j2, j3, tM, rows, cols in _states3_shapes(lo, hi):
+        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("M", tM)), rows, cols,
+                          lambda r, c, a=(j1, j2, j3), tM=tM: a + r + (tM,) + c)
+
+
+def states3_count(lo: int, hi: int) -> int:
+    """Exact number of cells of states3_blocks(lo, hi)."""
+    return sum(len(r) * len(c) for *_, r, c in _states3_shapes(lo, hi))
+
+
+def _tex(t: int) -> str:
+    from ..spins import half_text
+
+    text = half_text(t)
+    if "/" not in text:
+        return text
+    sign, body = ("-", text[1:]) if text.startswith("-") else ("", text)
+    n, d = body.split("/")
+    return f"{sign}\\frac{{{n}}}{{{d}}}"
+
+
+def coupled_ket3(params: tuple[tuple[str, int], ...], row: tuple[int, int]) -> tuple[str, str]:
+    """(text, LaTeX) of the coupled ket |(j1 j2)j12, j3; J, M>."""
+    from ..spins import half_text as h
+
+    p = dict(params)
+    t12, tJ = row
+    text = f"|({h(p['j1'])} {h(p['j2'])}){h(t12)}, {h(p['j3'])}; {h(tJ)}, {h(p['M'])}⟩"
+    tex = (f"\\vert ({_tex(p['j1'])}\\,{_tex(p['j2'])}){_tex(t12)},\\,{_tex(p['j3'])};\\,"
+           f"{_tex(tJ)},\\,{_tex(p['M'])}\\rangle")
+    return text, tex
+
+
+def product_ket3(params: tuple[tuple[str, int], ...], column: tuple[int, int, int]) -> tuple[str, str]:
+    """(text, LaTeX) of the product ket |j1, m1>|j2, m2>|j3, m3>."""
+    from ..spins import half_text as h
+
+    p = dict(params)
+    pairs = tuple(zip((p["j1"], p["j2"], p["j3"]), column))
+    text = "".join(f"|{h(j)}, {h(m)}⟩" for j, m in pairs)
+    tex = "".join(f"\\vert {_tex(j)},\\,{_tex(m)}\\rangle" for j, m in pairs)
+    return text, tex
