@@ -14,14 +14,14 @@ Nothing registers itself on import: :data:`FAMILIES` is the registry.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from functools import cached_property
+from functools import cached_property, partial
 from typing import Callable
 
 from .kinds import Kind, kind
 from .kinds.sixj import w_of_sixj
-from .layouts import ClassesLayout, GridLayout, Layout, MatrixLayout
+from .layouts import ClassesLayout, GridLayout, Layout, MatrixBlock, MatrixLayout
 
-__all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
+__all__ = ["Companion", "Alongside", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
            "ClassesLayout", "MatrixLayout"]
 
 #: Columns of every data row after the arguments.
@@ -40,6 +40,16 @@ class Companion:
     mapping: Callable[[tuple[int, ...]], tuple[tuple[int, ...], int]] = field(repr=False)  # no addresses in reprs
 
 
+@dataclass(frozen=True, slots=True)
+class Alongside:
+    """Another kind tabulated at the same arguments as the family's own, shown in full (exact,
+    square, decimal) in a block of its own: d^j(beta) at beta = pi/2 under the matrix of functions."""
+
+    kind: str
+    label: str  # what distinguishes it, as the page prints it: "β = π/2"
+    tex_label: str  # the same in LaTeX: "\\beta = \\pi/2"
+
+
 @dataclass(frozen=True)
 class Family:
     """One recipe section and everything the site needs to show it."""
@@ -51,6 +61,10 @@ class Family:
     layout: Layout
     convention: str
     companions: tuple[Companion, ...] = ()
+    alongside: tuple[Alongside, ...] = ()
+    range_name: str = "j"  # the recipe's range keys: max_<range_name>, min_<range_name>
+    range_step: int = 1  # doubled step of the range: 1 allows half-integers, 2 whole numbers only
+    convention_text: str = ""  # a section of the conventions page (templates/text/<name>.md), if any
 
     @cached_property
     def kind_record(self) -> Kind:
@@ -59,7 +73,7 @@ class Family:
     @property
     def kinds(self) -> tuple[str, ...]:
         """Every kind of value the family's pages show (the main one first)."""
-        return (self.kind,) + tuple(c.kind for c in self.companions)
+        return (self.kind,) + tuple(c.kind for c in self.companions) + tuple(a.kind for a in self.alongside)
 
     @property
     def data_columns(self) -> tuple[str, ...]:
@@ -67,6 +81,8 @@ class Family:
         extra = ("forms",) if self.layout.name == "classes" else ()
         for c in self.companions:
             extra += (c.kind, f"{c.kind}_sign")
+        for a in self.alongside:
+            extra += tuple(f"{a.kind}_{column}" if column != "exact" else a.kind for column in VALUE_COLUMNS)
         return self.kind_record.arguments + VALUE_COLUMNS + extra
 
     @property
@@ -131,6 +147,68 @@ FAMILIES: tuple[Family, ...] = (
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),
 )
+
+
+# -- rotation functions and spherical harmonics (issue 9) ---------------------------------------------
+def _rotation_blocks(lo: int, hi: int):
+    """One matrix per j in [lo, hi] (halves): rows m' and columns m from j down to -j."""
+    for tj in range(lo, hi + 1):
+        ms = tuple(range(tj, -tj - 1, -2))
+        yield MatrixBlock((("j", tj),), ms, ms, partial(_d_key, tj))
+
+
+def _d_key(tj: int, tmp: int, tm: int) -> tuple[int, ...]:
+    return (tj, tmp, tm)
+
+
+def _harmonics_blocks(lo: int, hi: int):
+    """One matrix on one page: rows m from l_max down to -l_max, columns l (whole numbers in [lo, hi])."""
+    ls = tuple(range(lo + lo % 2, hi + 1, 2))
+    top = ls[-1] if ls else 0
+    yield MatrixBlock((), tuple(range(top, -top - 1, -2)), ls, _y_key)
+
+
+def _y_key(tm: int, tl: int) -> "tuple[int, ...] | None":
+    return (tl, tm) if abs(tm) <= tl else None
+
+
+_ROTATION_CONVENTION = (
+    "Active rotation, Condon–Shortley phase: d^j_{m′m}(β) = ⟨j m′| exp(−iβJ_y) |j m⟩, row m′ (bra), column m (ket); "
+    "D^j_{m′m}(α, β, γ) = e^{−im′α} d^j_{m′m}(β) e^{−imγ}. Passive rotation: D^j_{m′m}(−γ, −β, −α) = "
+    "conj(D^j_{mm′}(α, β, γ)); conjugate tables: conj(D^j_{m′m}) = (−1)^{m′−m} D^j_{−m′,−m}; "
+    "e^{+iβJ_y} instead: d^j_{m′m}(−β) = d^j_{mm′}(β)."
+)
+_HARMONICS_CONVENTION = (
+    "Condon–Shortley phase, with the (−1)^m in Y: Y_l^m(θ, φ) = (−1)^m √((2l+1)/(4π)·(l−m)!/(l+m)!) "
+    "P_l^m(cos θ) e^{imφ} for m ≥ 0 with P_l^m(x) = (1−x²)^{m/2} d^m P_l/dx^m (no (−1)^m in P), "
+    "Y_l^{−m} = (−1)^m conj(Y_l^m); Y_l^m(θ, φ) = √((2l+1)/(4π)) conj(D^l_{m0}(φ, θ, 0))."
+)
+
+FAMILIES += (
+    Family(
+        key="rotation",
+        kind="d",
+        title="Wigner rotation functions",
+        nav_label="d(β)",
+        layout=MatrixLayout(block=("j",), row="mp", column="m", blocks=_rotation_blocks, count_noun="functions"),
+        convention=_ROTATION_CONVENTION,
+        alongside=(Alongside("d(pi/2)", "β = π/2", "\\beta = \\pi/2"),
+                   Alongside("d(pi/3)", "β = π/3", "\\beta = \\pi/3")),
+        convention_text="rotations",
+    ),
+    Family(
+        key="harmonics",
+        kind="Y",
+        title="Spherical harmonics",
+        nav_label="Y(θ, φ)",
+        layout=MatrixLayout(block=(), row="m", column="l", blocks=_harmonics_blocks, count_noun="functions"),
+        convention=_HARMONICS_CONVENTION,
+        range_name="l",
+        range_step=2,
+        convention_text="rotations",
+    ),
+)
+# -- end of rotation functions and spherical harmonics ------------------------------------------------
 
 FAMILY_KEYS = tuple(f.key for f in FAMILIES)
 _BY_KEY = {f.key: f for f in FAMILIES}

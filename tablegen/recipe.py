@@ -20,6 +20,10 @@ Recipe file (TOML)::
     max_j = 4
     [9j]
     max_j = 2
+    [rotation]                  # d^j_{m'm}(beta), one page per j in [min_j, max_j], steps of 1/2
+    max_j = 3
+    [harmonics]                 # Y_l^m(theta, phi) for whole l in [min_l, max_l], on one page
+    max_l = 4
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5.
 """
@@ -30,7 +34,7 @@ import sys
 from dataclasses import dataclass, field
 
 from .errors import QuantumNumberError, RecipeError, TooLargeError
-from .families import FAMILY_KEYS
+from .families import FAMILY_KEYS, family as family_record
 from .spins import half_text, parse_j
 
 __all__ = [
@@ -61,7 +65,6 @@ VALUE_LIMIT = 1_500_000
 
 _NO_J_LIMIT = 10**9
 _TOP_KEYS = ("title", "notes", "digits", "latex_style") + FAMILIES
-_FAMILY_KEYS = ("max_j", "min_j")
 
 
 @dataclass(frozen=True)
@@ -74,7 +77,8 @@ class FamilyRange:
 
     def describe(self) -> str:
         lo, hi = half_text(self.min_tj), half_text(self.max_tj)
-        return f"j ≤ {hi}" if self.min_tj == 0 else f"{lo} ≤ j ≤ {hi}"
+        j = _range_name(self.family)
+        return f"{j} ≤ {hi}" if self.min_tj == 0 else f"{lo} ≤ {j} ≤ {hi}"
 
 
 @dataclass(frozen=True)
@@ -102,9 +106,10 @@ class Recipe:
             "latex_style": self.latex_style,
         }
         for f in self.families:
-            entry = {"max_j": half_text(f.max_tj)}
+            j = _range_name(f.family)
+            entry = {f"max_{j}": half_text(f.max_tj)}
             if f.min_tj:
-                entry["min_j"] = half_text(f.min_tj)
+                entry[f"min_{j}"] = half_text(f.min_tj)
             out[f.family] = entry
         return out
 
@@ -117,10 +122,16 @@ class Recipe:
             f"latex_style = {_toml_string(self.latex_style)}",
         ]
         for f in self.families:
-            lines += ["", f"[{f.family}]", f'max_j = "{half_text(f.max_tj)}"']
+            j = _range_name(f.family)
+            lines += ["", f"[{f.family}]", f'max_{j} = "{half_text(f.max_tj)}"']
             if f.min_tj:
-                lines.append(f'min_j = "{half_text(f.min_tj)}"')
+                lines.append(f'min_{j} = "{half_text(f.min_tj)}"')
         return "\n".join(lines) + "\n"
+
+
+def _range_name(key: str) -> str:
+    """The letter of a family's range keys ("j": max_j, min_j; "l": max_l, min_l), from its record."""
+    return family_record(key).range_name
 
 
 def _toml_string(text: str) -> str:
@@ -142,6 +153,8 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("3j", 0, 8),
         FamilyRange("6j", 0, 8),
         FamilyRange("9j", 0, 4),
+        FamilyRange("rotation", 0, 6),
+        FamilyRange("harmonics", 0, 8),
     ),
 )
 
@@ -218,19 +231,25 @@ def recipe_from_mapping(data: dict, base: Recipe | None = None) -> Recipe:
         if table is False or table is None:  # command line: drop a family
             ranges.pop(name, None)
             continue
+        j = _range_name(name)
+        top, bottom = f"max_{j}", f"min_{j}"
         if not isinstance(table, dict):
-            raise RecipeError(name, table, "must be a table with max_j (and optionally min_j)")
+            raise RecipeError(name, table, f"must be a table with {top} (and optionally {bottom})")
         for key in table:
-            if key not in _FAMILY_KEYS:
-                raise RecipeError(f"{name}.{key}", table[key], "unknown key (known: max_j, min_j)")
-        if "max_j" not in table:
-            raise RecipeError(f"{name}.max_j", "(missing)", "is required")
-        hi = _j_value(f"{name}.max_j", table["max_j"])
-        lo = _j_value(f"{name}.min_j", table.get("min_j", 0))
+            if key not in (top, bottom):
+                raise RecipeError(f"{name}.{key}", table[key], f"unknown key (known: {top}, {bottom})")
+        if top not in table:
+            raise RecipeError(f"{name}.{top}", "(missing)", "is required")
+        hi = _j_value(f"{name}.{top}", table[top])
+        lo = _j_value(f"{name}.{bottom}", table.get(bottom, 0))
         if lo > hi:
             raise RecipeError(
-                f"{name}.min_j", table.get("min_j"), f"must not exceed max_j = {half_text(hi)} (reversed range)"
+                f"{name}.{bottom}", table.get(bottom), f"must not exceed {top} = {half_text(hi)} (reversed range)"
             )
+        step = family_record(name).range_step
+        for key, t in ((top, hi), (bottom, lo)):
+            if t % step:
+                raise RecipeError(f"{name}.{key}", table[key], f"{j} must be a whole number for this family")
         ranges[name] = FamilyRange(name, lo, hi)
     families = tuple(ranges[n] for n in FAMILIES if n in ranges)
     return Recipe(title=title, notes=notes, digits=digits, latex_style=style, families=families)
@@ -258,6 +277,22 @@ def _cg_count(f: FamilyRange) -> int:
     return total
 
 
+# -- rotation functions and spherical harmonics (issue 9): exact counts, kept apart ---------------
+def _rotation_count(f: FamilyRange) -> int:
+    """d^j(beta) matrices: (2j+1)^2 functions per j, each with its two values at fixed angles,
+    weighted by the j+1 coefficients a function of j holds (a large j costs more than a number)."""
+    return sum((tj + 1) ** 2 * (3 + tj // 2) for tj in _js(f))
+
+
+def _harmonics_count(f: FamilyRange) -> int:
+    """Y_l^m: 2l+1 functions per whole l, weighted by their l+1 coefficients."""
+    return sum((tl + 1) * (tl // 2 + 1) for tl in _js(f) if tl % 2 == 0)
+
+
+_FUNCTION_COUNTS = {"rotation": _rotation_count, "harmonics": _harmonics_count}
+# -- end of issue 9 counts ---------------------------------------------------------------------------
+
+
 def estimate_size(recipe: Recipe) -> dict[str, int]:
     """Estimated number of tabulated values per family (classes for 6j/9j).
 
@@ -269,6 +304,8 @@ def estimate_size(recipe: Recipe) -> dict[str, int]:
         n = f.max_tj - f.min_tj + 1  # number of distinct j values
         if f.family in ("cg", "3j"):
             out[f.family] = _cg_count(f) if f.max_tj <= 20 else int(0.132 * n**5)  # 7,809 at j <= 4
+        elif f.family in _FUNCTION_COUNTS:
+            out[f.family] = _FUNCTION_COUNTS[f.family](f)
         elif f.family == "6j":
             out[f.family] = max(1, int(630 * (n / 9) ** 6))  # 630 classes at j <= 4
         else:

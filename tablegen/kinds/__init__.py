@@ -18,7 +18,7 @@ from typing import Callable, Sequence
 
 from ..values import Surd
 
-__all__ = ["Kind", "Notation", "Selection", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
+__all__ = ["Kind", "Notation", "Selection", "ZeroRule", "KINDS", "KIND_KEYS", "ALL_KINDS", "ALL_KIND_KEYS", "kind"]
 
 
 @dataclass(frozen=True, slots=True)
@@ -114,10 +114,13 @@ class Kind:
         return self.doubled(*self.parse(values, max_j))
 
 
-from .registry import KINDS  # noqa: E402  (the explicit list, built from the kind modules)
+from .registry import KINDS, TABULATED_FUNCTIONS  # noqa: E402  (the explicit lists, built from the kind modules)
 
 KIND_KEYS = tuple(k.key for k in KINDS)
-_BY_KEY = {k.key: k for k in KINDS}
+#: every kind a site may tabulate, in the order of values.txt: the coupling symbols, then the functions
+ALL_KINDS = KINDS + TABULATED_FUNCTIONS
+ALL_KIND_KEYS = tuple(k.key for k in ALL_KINDS)
+_BY_KEY = {k.key: k for k in ALL_KINDS}
 
 
 def kind(key: str) -> Kind:
@@ -125,4 +128,4 @@ def kind(key: str) -> Kind:
     try:
         return _BY_KEY[key]
     except (KeyError, TypeError):
-        raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(KIND_KEYS)}") from None
+        raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(ALL_KIND_KEYS)}") from None

@@ -46,6 +46,9 @@ class SphericalHarmonic:
     def __setattr__(self, name: str, value: object) -> None:
         raise AttributeError("SphericalHarmonic is immutable")
 
+    def __reduce__(self):  # a build's worker processes send values back pickled
+        return (SphericalHarmonic, (self._theta, self._m))
+
     theta_part = property(lambda self: self._theta, doc="the function of theta, without the 1/sqrt(pi)")
     m = property(lambda self: self._m)
 

@@ -6,7 +6,8 @@ and columns j23; a rotation matrix d^j(beta) for fixed j (and angle), rows m'
 and columns m.  The family supplies ``blocks``: for a range of j, the blocks
 in order, each with its parameters, its row and column labels and the key of
 each cell (None where no value exists).  Blocks that share their first
-parameter go onto one page.  The names of the block parameters, of the row
+parameter go onto one page; a layout with no block parameters (``block=()``)
+puts its one matrix on one page, ``{key}/all.html``.  The names of the block parameters, of the row
 and of the column are argument names of the family's kind, so that a value's
 page and anchor follow from its arguments alone (the jump box relies on it).
 """
@@ -47,23 +48,25 @@ class MatrixLayout:
 
     name = "matrix"
 
-    def page_path(self, key: str, value: int) -> str:
-        return f"{key}/{self.block[0]}-{file_code(value)}.html"
+    def page_path(self, key: str, value: "int | None" = None) -> str:
+        return f"{key}/{self.block[0]}-{file_code(value)}.html" if self.block else f"{key}/all.html"
 
     @staticmethod
     def block_anchor(params: tuple[tuple[str, int], ...]) -> str:
-        return ",".join(f"{n}={half(v)}" for n, v in params)
+        return ",".join(f"{n}={half(v)}" for n, v in params) or "all"
 
     def anchor(self, block: str, tr: int, tc: int) -> str:
-        return f"{block};{self.row}={half(tr)},{self.column}={half(tc)}"
+        cell = f"{self.row}={half(tr)},{self.column}={half(tc)}"
+        return f"{block};{cell}" if self.block else cell
 
     def page_pattern(self, key: str) -> str:
         """The page path with argument names in braces (the jump box fills them in)."""
-        return f"{key}/{self.block[0]}-{{{self.block[0]}}}.html"
+        return f"{key}/{self.block[0]}-{{{self.block[0]}}}.html" if self.block else f"{key}/all.html"
 
     def anchor_pattern(self) -> str:
         block = ",".join(f"{n}={{{n}}}" for n in self.block)
-        return f"{block};{self.row}={{{self.row}}},{self.column}={{{self.column}}}"
+        cell = f"{self.row}={{{self.row}}},{self.column}={{{self.column}}}"
+        return f"{block};{cell}" if self.block else cell
 
     @property
     def params(self) -> tuple[str, ...]:
@@ -74,9 +77,9 @@ class MatrixLayout:
         for block in self.blocks(f.min_tj, f.max_tj):
             if tuple(n for n, _ in block.params) != self.block:
                 raise AssertionError(f"plan: a {fam.key} block has parameters {block.params}, not {self.block}")
-            by_page.setdefault(block.params[0], []).append(block)
+            by_page.setdefault(block.params[0] if block.params else None, []).append(block)
         pages, tables = [], []
-        for (name, value), blocks in by_page.items():
+        for first, blocks in by_page.items():
             sections = []
             for block in blocks:
                 anchor = self.block_anchor(block.params)
@@ -91,7 +94,7 @@ class MatrixLayout:
                             entries.append(e)
                     grid.append(tuple(line))
                 sections.append(Section(
-                    title=", ".join(f"{n} = {half(v)}" for n, v in block.params),
+                    title=", ".join(f"{n} = {half(v)}" for n, v in block.params) or fam.title,
                     anchor=anchor,
                     entries=tuple(entries),
                     rows=block.rows,
@@ -100,11 +103,15 @@ class MatrixLayout:
                     row_anchors=tuple(f"row:{anchor};{self.row}={half(tr)}" for tr in block.rows),
                     params=block.params,
                 ))
-            tid = f"{fam.key}-{name}-{file_code(value)}"
-            title = f"{fam.title} for {name} = {half(value)}"
-            path = self.page_path(fam.key, value)
+            if first is None:  # no block parameters: the family's one page
+                tid, title, path, label = f"{fam.key}-all", fam.title, self.page_path(fam.key), fam.nav_label
+            else:
+                name, value = first
+                tid = f"{fam.key}-{name}-{file_code(value)}"
+                title = f"{fam.title} for {name} = {half(value)}"
+                path, label = self.page_path(fam.key, value), f"{fam.nav_label}, {name} = {half(value)}"
             tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=tuple(sections),
-                                params=((name, value),), kind=fam.kind, **table_files(tid)))
+                                params=(first,) if first else (), kind=fam.kind, **table_files(tid)))
             index = Link(f"all {fam.nav_label} pages", f"index.html#{fam.key}")
-            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.nav_label}, {name} = {half(value)}"))
+            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=label))
         return chain(pages), tables

@@ -17,7 +17,7 @@ from typing import Iterator
 from ..buildinfo import BuildMeta, bibtex
 from ..compute import ValueBook
 from ..families import Family
-from ..kinds import KIND_KEYS
+from ..kinds import ALL_KIND_KEYS, KIND_KEYS
 from ..plan import SitePlan, Table
 from ..spins import half_text
 
@@ -30,16 +30,22 @@ VALUES_HEADER = (
     "# families: cg <j1 m1; j2 m2 | J M>, 3j (j1 j2 j3; m1 m2 m3), 6j {j1 j2 j3; j4 j5 j6},\n"
     "#           w W(a b c d; e f), 9j rows in order; Condon-Shortley phase\n"
 )
+#: Added to the header only when the build holds function-valued kinds (a build without them keeps its digest).
+FUNCTIONS_HEADER = (
+    "#           d j m' m: d^j_{m'm}(beta) = <j m'|exp(-i beta Jy)|j m>, d(pi/2), d(pi/3) its values there;\n"
+    "#           Y l m: Y_l^m(theta, phi), the (-1)^m in Y\n"
+)
 
 
 def canonical_values(book: ValueBook) -> bytes:
     """values.txt: every value of the build, sorted, one per line."""
-    order = {f: i for i, f in enumerate(KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j
+    order = {f: i for i, f in enumerate(ALL_KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j, then functions
     lines = [
         f"{family} {' '.join(half_text(x) for x in key)} {shown.exact}\n"
         for (family, key), shown in sorted(book.items(), key=lambda kv: (order[kv[0][0]], kv[0][1]))
     ]
-    return (VALUES_HEADER + "".join(lines)).encode("utf-8")
+    header = VALUES_HEADER + (FUNCTIONS_HEADER if any(k not in KIND_KEYS for k, _ in book) else "")
+    return (header + "".join(lines)).encode("utf-8")
 
 
 def _rows(table: Table, fam: Family, book: ValueBook) -> Iterator[list[str]]:
@@ -52,6 +58,9 @@ def _rows(table: Table, fam: Family, book: ValueBook) -> Iterator[list[str]]:
         for c in fam.companions:
             args, sign = c.mapping(entry.key)
             row += [" ".join(half_text(x) for x in args), str(sign)]
+        for a in fam.alongside:
+            other = book[(a.kind, entry.key)]
+            row += [other.exact, other.square, other.decimal]
         yield row
 
 
@@ -89,6 +98,9 @@ def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: i
         for c in fam.companions:
             args, sign = c.mapping(entry.key)
             row[c.kind] = {"args": [half_text(x) for x in args], "sign": sign}
+        for a in fam.alongside:
+            other = book[(a.kind, entry.key)]
+            row[a.kind] = {"exact": other.exact, "square": other.square, "decimal": other.decimal}
         rows.append(json.dumps(row, ensure_ascii=False, separators=(",", ":")))
     body = json.dumps(head, ensure_ascii=False, indent=1)[:-2]  # reopen the object: one row per line below
     body += ',\n "rows": [\n  ' + ",\n  ".join(rows) + "\n ]\n}\n"

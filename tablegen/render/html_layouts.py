@@ -9,7 +9,7 @@ prose/<family key>.html (prose/default.html when a family has none).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
 
 from markupsafe import Markup
@@ -212,10 +212,10 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
     """A list of the family's pages with their counts (classes and matrix layouts)."""
     items = []
     for t in site.plan.tables_of(fam.key):
-        (name, value), = t.params
+        (name, value), = t.params or ((fam.title, None),)  # a matrix layout without blocks: one page
         items.append({
             "name": name,
-            "label": _qn(value),
+            "label": None if value is None else _qn(value),
             "href": relative_url(page.path, t.page),
             "count": len(t.entries),
             "forms": sum(e.forms for e in t.entries),
@@ -224,16 +224,27 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
 
 
 # -- matrix -------------------------------------------------------------------------------
+def _matrix_rows(site: "_Site", page: Page, s: Section, kind_key: str, suffix: str) -> list[Row]:
+    """A section's matrix of values of one kind; ids get ``suffix`` (a kind shown alongside: ';d(pi/2)')."""
+    rows = []
+    for r, tr in enumerate(s.rows):
+        cells = []
+        for e in s.grid[r]:
+            cell = None if e is None else _cell(site, page, kind_key, e, "")
+            cells.append(cell if cell is None or not suffix else replace(cell, anchor=cell.anchor + suffix))
+        rows.append(Row(label=_qn(tr), anchor=s.row_anchors[r] + suffix, cells=tuple(cells)))
+    return rows
+
+
 def _matrix_page(site: "_Site", page: Page) -> bytes:
     table = site.plan.table(page.tables[0])
     fam = site.plan.family(table.family)
     sections = []
     for s in table.sections:
-        rows = []
-        for r, tr in enumerate(s.rows):
-            cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
-            rows.append(Row(label=_qn(tr), anchor=s.row_anchors[r], cells=cells))
-        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns], "rows": rows})
+        alongside = [{"label": a.label, "rows": _matrix_rows(site, page, s, a.kind, f";{a.kind}")}
+                     for a in fam.alongside]
+        sections.append({"title": s.title, "anchor": s.anchor, "columns": [_qn(c) for c in s.columns],
+                         "rows": _matrix_rows(site, page, s, fam.kind, ""), "alongside": alongside})
     return site.render(
         "matrix.html",
         page,

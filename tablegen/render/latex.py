@@ -204,6 +204,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
                 layout=fam.layout,
                 fragment_file=posixpath.basename(table.tex),
                 value=_lookup(book, table.kind),
+                alongside=[(a.tex_label, _lookup(book, a.kind)) for a in fam.alongside],
             )
         )
         yield table.tex_sheet, _encode(
@@ -220,6 +221,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
             bibtex_lines=bibtex(meta).rstrip("\n").split("\n"),
             recipe_lines=meta.recipe_toml.rstrip("\n").split("\n"),
             citation=plain_citation(meta),
+            convention_texts=list(dict.fromkeys(f.convention_text for f in plan.families if f.convention_text)),
         )
     )
 
