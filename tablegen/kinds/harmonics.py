@@ -87,7 +87,8 @@ class SphericalHarmonic:
         parts = [self.coefficient.latex(style)]
         u = self._unit().latex(style)
         if u != "1":
-            parts.append(f"\\left({u}\\right)" if len(self._theta.coeffs) > 1 and self._theta.half == "1" else u)
+            terms = sum(1 for c in self._theta.coeffs if c)  # a single power of cos needs no brackets
+            parts.append(f"\\left({u}\\right)" if terms > 1 and self._theta.half == "1" else u)
         if self._m:
             parts.append("e^{i\\phi}" if self._m == 1 else f"e^{{{'-' if self._m < 0 else ''}"
                          f"{'' if abs(self._m) == 1 else abs(self._m)}i\\phi}}")

@@ -45,6 +45,8 @@ class MatrixLayout:
     column: str  # kind argument labelling the columns ("j23", "m")
     blocks: Callable[[int, int], Iterable[MatrixBlock]] = field(repr=False)  # (min 2j, max 2j) -> blocks in order
     count_noun: str = "values"
+    tex_list: bool = False  # LaTeX lists the values (symbol = value, one a line): functions too wide for a row
+
 
     name = "matrix"
 

@@ -162,6 +162,17 @@ class _Helpers:
     def symbol(self, kind_key: str, key: tuple[int, ...]) -> str:
         return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
 
+    @staticmethod
+    def value_symbol(kind_key: str, key: tuple[int, ...]) -> str:
+        """A function-valued kind's symbol as printed: 'd^{1}_{1,0}(\\beta)' (its FunctionKind record)."""
+        from ..kinds.angular import FUNCTION_KEYS, function_kind
+
+        if kind_key not in FUNCTION_KEYS:
+            return latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])
+        f = function_kind(kind_key)
+        head = f.symbol.format(**{n: half_text(v) for n, v in zip(f.kind.arguments, key)})
+        return f"{head}({', '.join(chr(92) + a for a in f.angles)})"
+
     def columns(self, table: Table) -> list[tuple[int, str]]:
         """(position, name) of the arguments a grid row shows: all but the table's parameters."""
         given = {name for name, _ in table.params}
@@ -188,7 +199,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "pdf_text": pdf_text,
         "fragment_packages": FRAGMENT_PACKAGES,
         **{name: getattr(helpers, name) for name in (
-            "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
+            "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol", "value_symbol",
             "columns", "head_symbol",
         )},
     }
