@@ -334,3 +334,38 @@ def test_jump_box_lands_on_a_matrix_cell(browser, matrix_site):
         assert w.problems == []
     finally:
         w.close()
+
+
+# -- the rotation and harmonics families (issue 9): the jump box reaches a d^j entry and a Y ----------
+@pytest.fixture(scope="module")
+def rotation_site(tmp_path_factory):
+    from tablegen.build import render_outputs
+
+    plan = plan_site(recipe_from_mapping({"rotation": {"max_j": "3/2"}, "harmonics": {"max_l": 2}}))
+    _, outputs = render_outputs(plan, compute_values(plan, jobs=1))
+    root = tmp_path_factory.mktemp("rotation") / "site"
+    for path, data in outputs:
+        (root / path).parent.mkdir(parents=True, exist_ok=True)
+        (root / path).write_bytes(data)
+    return root, plan
+
+
+def test_jump_box_lands_on_a_rotation_function_and_a_harmonic(browser, rotation_site):
+    root, plan = rotation_site
+    w = Watched(browser, root)
+    try:
+        w.open("index.html")
+        _type(w.page, "d", ["3/2", "1/2", "-3/2"])  # d^{3/2}_{1/2,-3/2}
+        rot = plan.family("rotation").layout
+        _landed(w.page, rot.page_path("rotation", 3), rot.anchor(rot.block_anchor((("j", 3),)), 1, -3))
+        assert w.page.locator(f'[id="{rot.anchor("j=3/2", 1, -3)}"] math').count() == 1
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "Y", ["2", "-1"])
+        har = plan.family("harmonics").layout
+        _landed(w.page, har.page_path("harmonics"), har.anchor("", -2, 4))  # rows m, columns l
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "d", ["1", "2", "0"])  # |m'| > j: a zero by the selection rule, no navigation
+        w.page.wait_for_function("document.querySelector('#jump').textContent.includes('|mp| > j')", timeout=5000)
+        assert w.problems == []
+    finally:
+        w.close()
