@@ -20,7 +20,7 @@ from ..intmath import factorial
 from ..values.surd import Surd
 from ..values.pi_power import PiPower
 from ..values.trig_poly import TrigPoly, poly_mul
-from . import Kind, Notation, ZeroRule
+from . import Kind, Notation, Selection, ZeroRule
 
 __all__ = ["SphericalHarmonic", "y2", "y_zero_rule", "SPHERICAL_Y"]
 
@@ -142,7 +142,7 @@ def _y_parse(values, max_j=None) -> tuple[int, ...]:
     return tl, parse_m(m, "m", tl, "l", max_j)
 
 
-#: The Kind record for Y_l^m; not yet in the registry (the site family comes first).
+#: The Kind record for Y_l^m; the site tabulates it (registry.TABULATED_FUNCTIONS).
 SPHERICAL_Y = Kind(
     key="Y",
     title="spherical harmonic",
@@ -152,4 +152,5 @@ SPHERICAL_Y = Kind(
     doubled=y2,  # returns a SphericalHarmonic: the record's type hint needs widening
     zero_rule=y_zero_rule,
     notation=Notation("function", ((0, 1),), name="Y"),
+    selection=Selection(projections=((0, 1),)),  # m belongs to l
 )

@@ -13,11 +13,11 @@ from __future__ import annotations
 from functools import partial
 
 from ..values.surd import Surd
-from . import Kind, Notation, Selection
+from . import Kind, Notation
 from .harmonics import SPHERICAL_Y
 from .rotation import ROTATION_D_SMALL, d_at_cos2
 
-__all__ = ["ROTATION_D_TABLE", "SPHERICAL_Y_TABLE", "D_AT_HALF_PI", "D_AT_THIRD_PI", "TABULATED_FUNCTIONS",
+__all__ = ["D_AT_HALF_PI", "D_AT_THIRD_PI", "TABULATED_FUNCTIONS",
            "d_at_angle"]
 
 
@@ -31,14 +31,6 @@ def d_at_angle(angle: str, tj: int, tmp: int, tm: int) -> Surd:
     return d_at_cos2(tj, tmp, tm, polar.x, polar.signs)
 
 
-#: d with its selection data (each m belongs to j), for the jump box
-ROTATION_D_TABLE = Kind(**{**{f: getattr(ROTATION_D_SMALL, f) for f in Kind.__slots__},
-                           "selection": Selection(projections=((0, 1), (0, 2)))})
-#: Y with its selection data
-SPHERICAL_Y_TABLE = Kind(**{**{f: getattr(SPHERICAL_Y, f) for f in Kind.__slots__},
-                            "selection": Selection(projections=((0, 1),))})
-
-
 def _d_at(key: str, angle: str, title: str) -> Kind:
     return Kind(
         key=key,
@@ -49,7 +41,7 @@ def _d_at(key: str, angle: str, title: str) -> Kind:
         doubled=partial(d_at_angle, angle),
         zero_rule=ROTATION_D_SMALL.zero_rule,
         notation=Notation("function", ((0,), (1, 2)), name="d"),
-        selection=ROTATION_D_TABLE.selection,
+        selection=ROTATION_D_SMALL.selection,
     )
 
 
@@ -57,4 +49,4 @@ D_AT_HALF_PI = _d_at("d(pi/2)", "pi/2", "Wigner rotation function d at beta = pi
 D_AT_THIRD_PI = _d_at("d(pi/3)", "pi/3", "Wigner rotation function d at beta = pi/3")
 
 #: In the order of values.txt, after the coupling symbols.
-TABULATED_FUNCTIONS: tuple[Kind, ...] = (ROTATION_D_TABLE, D_AT_HALF_PI, D_AT_THIRD_PI, SPHERICAL_Y_TABLE)
+TABULATED_FUNCTIONS: tuple[Kind, ...] = (ROTATION_D_SMALL, D_AT_HALF_PI, D_AT_THIRD_PI, SPHERICAL_Y)
