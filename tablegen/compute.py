@@ -191,7 +191,10 @@ def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Sh
             p = ctx.Process(target=_worker, args=(theirs,), daemon=True)
             # a start cut short would leave the child a truncated message to complain about
             with sigint_ignored_by_children():
-                p.start()
+                try:
+                    p.start()
+                except (EOFError, OSError):  # the fork server lost the new child before it reported in
+                    raise ComputeError("a worker process ended unexpectedly (while starting); nothing was written") from None
             theirs.close()
             procs.append(p)
             conns.append(mine)

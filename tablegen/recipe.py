@@ -164,7 +164,13 @@ def _load_toml(path: str) -> dict:
         import tomllib
     else:  # pragma: no cover - Python 3.10
         import tomli as tomllib
+    import os
+    import stat
+
     try:
+        # a FIFO or a device would block on open or never end: only a regular file is a recipe
+        if os.path.exists(path) and not stat.S_ISREG(os.stat(path).st_mode) and not os.path.isdir(path):
+            raise RecipeError("--recipe", path, "is not a regular file (a pipe or a device); give a TOML file")
         with open(path, "rb") as fh:
             data = fh.read(RECIPE_MAX_BYTES + 1)
     except FileNotFoundError:

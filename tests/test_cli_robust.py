@@ -479,3 +479,21 @@ def test_cite_bib_of_a_hostile_title_compiles_under_pdflatex(tmp_path):
         assert done.returncode == 0, done.stdout[-2000:]
     log = (tmp_path / "paper.log").read_text(errors="replace")
     assert "Missing character" not in log
+
+
+def test_a_recipe_that_is_a_pipe_is_refused_without_blocking(capsys, tmp_path):
+    # opening a FIFO for reading blocks until a writer comes (POSIX; common practice, no source)
+    fifo = tmp_path / "recipe.toml"
+    os.mkfifo(fifo)
+    status, _, err = _run(capsys, "build", "--recipe", str(fifo), "--out", str(tmp_path / "s"))
+    _one_error(status, err, "--recipe", "not a regular file")
+    assert not (tmp_path / "s").exists()
+
+
+def test_phase_refuses_a_huge_literal_at_once():
+    # the literal's length and exponent are checked before any conversion (issue 7: nothing hangs)
+    from tablegen import phase
+
+    with pytest.raises(ValueError, match="needs an integer"):
+        phase("1e99999999")
+    assert (phase("3"), phase("-4/2"), phase("2.0"), phase("\u22121")) == (-1, 1, 1, -1)

@@ -51,9 +51,12 @@ def _as_integer(x: object) -> "int | None":
     if isinstance(x, numbers.Integral):
         return int(x)
     if isinstance(x, str):
+        from ..errors import TablegenError
+        from ..spins import rational_from_text  # refuses a huge literal by its length, never converts it
+
         try:
-            x = Fraction(x.strip().replace("\u2212", "-"))
-        except (ValueError, ZeroDivisionError):
+            x = Fraction(*rational_from_text(x, "x"))
+        except (TablegenError, ValueError, ZeroDivisionError):
             return None
     if isinstance(x, numbers.Rational):
         return int(x.numerator) if x.denominator == 1 else None
