@@ -84,40 +84,6 @@ def _grid_count(lo: int, hi: int) -> int:
     return total
 
 
-class _OverBudget(Exception):
-    pass
-
-
-def _admissible(kind, lo: int, hi: int, budget: int):
-    """Every symbol with all j in [lo, hi] whose triads all couple (doubled), pruned as it goes.
-
-    Raises _OverBudget after ``budget`` loop steps, so a wide range costs no more than a narrow one.
-    """
-    from .triads import is_triad
-
-    size = len(kind.arguments)
-    checks: list[list[tuple[int, int, int]]] = [[] for _ in range(size)]
-    for triad in kind.triads:
-        checks[max(triad)].append(triad)
-    values = range(lo, hi + 1)
-    t = [0] * size
-    steps = [budget]
-
-    def walk(depth: int):
-        for v in values:
-            steps[0] -= 1
-            if steps[0] < 0:
-                raise _OverBudget
-            t[depth] = v
-            if all(is_triad(t[i], t[k], t[m]) for i, k, m in checks[depth]):
-                if depth + 1 == size:
-                    yield tuple(t)
-                else:
-                    yield from walk(depth + 1)
-
-    return walk(0)
-
-
 def _sampled_symbols(kind, lo: int, hi: int) -> int:
     """Admissible symbols in the box, estimated from a fixed-seed sample (deterministic)."""
     import random
@@ -136,18 +102,21 @@ def _sampled_symbols(kind, lo: int, hi: int) -> int:
 def _class_count(kind, layout, lo: int, hi: int) -> tuple[int, int, int]:
     """(low, high, symbols): exact classes as the layout files them when enumerable, else bounds.
 
-    A class holds at most ``layout.class_size`` forms, so symbols / class_size bounds it from below.
+    A class holds at most ``layout.class_size`` forms, so symbols / class_size bounds it from below;
+    the enumeration is the plan's own, stopped after ENUMERATION_BUDGET steps.
     """
+    from .layouts.classes import EnumerationBudget, symbols_in_range
+
     seen: set[tuple[int, ...]] = set()
     classes = symbols = 0
     try:
-        for s in _admissible(kind, lo, hi, ENUMERATION_BUDGET):
+        for s in symbols_in_range(kind, lo, hi, ENUMERATION_BUDGET):
             symbols += 1
             if s in seen:
                 continue
             classes += 1
             seen.update(m for m, _ in layout.filed_by(*s))
-    except _OverBudget:
+    except EnumerationBudget:
         estimated = max(symbols, _sampled_symbols(kind, lo, hi))
         return max(classes, -(-estimated // layout.class_size)), estimated, estimated
     return classes, classes, symbols

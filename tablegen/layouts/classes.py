@@ -27,16 +27,22 @@ if TYPE_CHECKING:  # pragma: no cover
     from ..kinds import Kind
     from ..recipe import FamilyRange
 
-__all__ = ["ClassesLayout", "symbols_in_range"]
+__all__ = ["ClassesLayout", "EnumerationBudget", "symbols_in_range"]
 
 _WHERE: dict = {}  # (family key, min_tj, max_tj) -> {canonical form: page path}; see ClassesLayout._where
 
 
-def symbols_in_range(k: "Kind", min_tj: int, max_tj: int) -> Iterator[tuple[int, ...]]:
+class EnumerationBudget(Exception):
+    """An enumeration needed more loop steps than its budget allowed."""
+
+
+def symbols_in_range(k: "Kind", min_tj: int, max_tj: int, budget: "int | None" = None) -> Iterator[tuple[int, ...]]:
     """Every symbol of kind ``k`` with each j in [min_tj, max_tj] and every triad allowed, in order.
 
     A triad is checked as soon as its last argument is chosen, which prunes the
-    search as early as the written-out loops it replaces.
+    search as early as the written-out loops it replaces.  With a ``budget``,
+    EnumerationBudget is raised after that many loop steps, so that a size
+    estimate over a wide range costs no more than one over a narrow range.
     """
     n = len(k.arguments)
     due: list[list[tuple[int, int, int]]] = [[] for _ in range(n)]
@@ -44,9 +50,14 @@ def symbols_in_range(k: "Kind", min_tj: int, max_tj: int) -> Iterator[tuple[int,
         due[max(triad)].append(triad)
     js = range(min_tj, max_tj + 1)
     t = [0] * n
+    left = [budget]
 
     def fill(pos: int) -> Iterator[tuple[int, ...]]:
         for v in js:
+            if budget is not None:
+                left[0] -= 1
+                if left[0] < 0:
+                    raise EnumerationBudget
             t[pos] = v
             if all(is_triad(t[a], t[b], t[c]) for a, b, c in due[pos]):
                 if pos + 1 == n:
