@@ -289,6 +289,10 @@ def describe_difference(path: str, got: bytes, want: bytes) -> str:
     except UnicodeDecodeError:
         at = next((i for i, (a, b) in enumerate(zip(got, want)) if a != b), min(len(got), len(want)))
         return f"{path}: differs from the rebuilt file at byte {at + 1}"
+    if path.startswith("data/") and path.endswith(".json"):
+        table = _table_difference(path, got_text, want_text)
+        if table:
+            return table
     g, w = got_text.splitlines(), want_text.splitlines()
     i = next((k for k, (a, b) in enumerate(zip(g, w)) if a != b), min(len(g), len(w)))
     size = f" ({len(g)} lines, the rebuilt file has {len(w)})" if len(g) != len(w) else ""
@@ -301,6 +305,34 @@ def describe_difference(path: str, got: bytes, want: bytes) -> str:
     shown = "the file ends" if got_line is None else _excerpt(got_line, column)
     expected = "the file ends" if want_line is None else _excerpt(want_line, column)
     return f"{path} line {i + 1}{named}: {shown}, where the rebuilt site has {expected}{size}"
+
+
+def _table_difference(path: str, got_text: str, want_text: str) -> str:
+    """The first differing field of a per-table JSON file (one compact line), named by row, value and column.
+
+    Empty when ``got_text`` is not a table at all: the caller then shows the raw excerpt.
+    """
+    try:
+        got, want = json.loads(got_text), json.loads(want_text)
+    except ValueError:
+        return ""
+    if not isinstance(got, dict) or not isinstance(got.get("rows"), list):
+        return ""
+    for key in want:
+        if key != "rows" and got.get(key, ...) != want[key]:
+            return f"{path}: {key} is {_cut(json.dumps(got.get(key), ensure_ascii=False))}, " \
+                   f"where the rebuilt site has {_cut(json.dumps(want[key], ensure_ascii=False))}"
+    rows, columns = want["rows"], want["columns"]
+    for i, (g, w) in enumerate(zip(got["rows"], rows)):
+        if g != w:
+            named = _value_named(path, want_text, w)
+            k = next((k for k, (a, b) in enumerate(zip(g, w)) if a != b), min(len(g), len(w))) \
+                if isinstance(g, list) else 0
+            field = f", {columns[k]}" if k < len(columns) else ""
+            shown = _cut(json.dumps(g[k] if isinstance(g, list) and k < len(g) else g, ensure_ascii=False))
+            expected = _cut(json.dumps(w[k] if k < len(w) else w, ensure_ascii=False))
+            return f"{path} row {i + 1}{named}{field}: {shown}, where the rebuilt site has {expected}"
+    return f"{path}: {len(got['rows'])} rows, the rebuilt file has {len(rows)}"
 
 
 def _manifest_keys_differing(got: bytes, want: bytes) -> list[str] | str:
@@ -330,8 +362,8 @@ def _manifest_difference(got: bytes, want: bytes) -> str:
     return f"{MANIFEST}: " + "; ".join(parts)
 
 
-def _value_named(path: str, want_text: str, line: str | None) -> str:
-    """', value <symbol>' for a line of a data file, where the line names one."""
+def _value_named(path: str, want_text: str, line: "str | list | None") -> str:
+    """', value <symbol>' for a line of a data file (or a row of a JSON table), where it names one."""
     if not line:
         return ""
     try:
@@ -345,9 +377,9 @@ def _value_named(path: str, want_text: str, line: str | None) -> str:
             header = want_text.split("\n", 1)[0]
             family = next(f for f, names in ARGUMENT_NAMES.items() if f != "w" and header.startswith(",".join(names) + ","))
             args = line.split(",")[: len(ARGUMENT_NAMES[family])]
-        elif path.endswith(".json") and line.lstrip().startswith('{"args"'):
-            family = re.search(r'^ "family": "([^"]+)"', want_text, re.M).group(1)
-            args = json.loads(line.strip().rstrip(","))["args"]
+        elif path.endswith(".json") and isinstance(line, list):
+            family = json.loads(want_text)["family"]
+            args = line[: len(ARGUMENT_NAMES[family])]
         else:
             return ""
         return f", value {symbol_text(family, parse_arguments(family, args, max_j=10**6))}"
@@ -363,8 +395,7 @@ def _field_named(path: str, want_text: str, line: str, column: int) -> str:
         return f", {header[index]}" if index < len(header) else ""
     if path == "values.txt":
         return ", exact" if line[:column].count(" ") >= len(line.split(" ")) - 1 else ", arguments"
-    keys = re.findall(r'"(\w+)":', line[:column])
-    return f", {keys[-1]}" if keys else ""
+    return ""
 
 
 def _first_column(a: str, b: str) -> int:

@@ -2,7 +2,8 @@
 
 A byte-for-byte comparison needs the same renderers; a site from another
 version can still be checked value by value, because its data files use the
-stable ``tablegen-table/1`` format.  Every value in every CSV, JSON table and
+stable ``tablegen-table`` formats (1: a named object per row; 2: typed
+columns, as in the CSV, plus the list of equal forms).  Every value in every CSV, JSON table and
 values.txt is recomputed with the installed engine (exact text, signed
 square, decimal), the sign of each listed symmetry form and of each W is
 checked against the engine, the files are checked against each other (the same
@@ -194,7 +195,7 @@ class _Checker:
         except ValueError as exc:
             self.problem(f"{path}: not valid JSON ({str(exc)[:60]})")
             return
-        if not isinstance(doc, dict) or doc.get("format") != TABLE_FORMAT:
+        if not isinstance(doc, dict) or doc.get("format") not in _TABLE_FORMATS:
             self.problem(f"{path}: not a {TABLE_FORMAT} file")
             return
         family, rows = doc.get("family"), doc.get("rows")
@@ -204,6 +205,12 @@ class _Checker:
         if not isinstance(rows, list):
             self.problem(f"{path}: 'rows' is {type(rows).__name__}, not a list of rows")
             return
+        if doc["format"] != _OLD_TABLE_FORMAT:
+            columns = doc.get("columns")
+            if not isinstance(columns, list) or not all(isinstance(c, str) for c in columns):
+                self.problem(f"{path}: 'columns' is not a list of column names")
+                return
+            rows = [_named_row(columns, row, len(ARGUMENT_NAMES[family])) for row in rows]
         keys = []
         for i, row in enumerate(rows, 1):
             where = f"{path} row {i}"
@@ -356,3 +363,24 @@ def _check_digest_mentions(present: set[str], read, report, digest: str) -> None
             if not digest.startswith(found):
                 report.add(f"{path}: quotes the data digest {found}, but values.txt has {digest}")
                 break
+
+
+_OLD_TABLE_FORMAT = "tablegen-table/1"
+_TABLE_FORMATS = (_OLD_TABLE_FORMAT, TABLE_FORMAT)
+
+
+def _named_row(columns: list[str], row: object, n: int) -> object:
+    """A format-2 row (cells in the order of ``columns``) as the format-1 object the checks read.
+
+    A row of the wrong shape is passed on as it is, so that the checks report it.
+    """
+    if not isinstance(row, list) or len(row) != len(columns):
+        return row
+    cell = dict(zip(columns, row))
+    named = {"args": row[:n], **{k: cell[k] for k in ("exact", "sign", "p", "q", "decimal") if k in cell}}
+    if "members" in cell:
+        named["forms"] = cell["members"]
+    if "w" in cell:
+        w_args = cell["w"]
+        named["w"] = {"args": w_args.split(" ") if isinstance(w_args, str) else w_args, "sign": cell.get("w_sign")}
+    return named

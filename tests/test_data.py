@@ -194,8 +194,10 @@ def test_a_few_values_by_hand(data: Data) -> None:
 
 def test_json_is_valid_and_matches_csv(data: Data) -> None:
     for table in data.plan.tables:
-        doc = json.loads(data.files[table.json].decode("utf-8"))
-        assert doc["format"] == "tablegen-table/1"
+        text = data.files[table.json].decode("utf-8")
+        doc = json.loads(text)
+        assert text.count("\n") == 1 and text.endswith("}\n")  # one compact line, written by json.dumps
+        assert doc["format"] == "tablegen-table/2"
         assert doc["table"] == table.id and doc["family"] == table.family
         assert doc["arguments"] == HEADERS[table.family]
         assert doc["convention"] == data.plan.family(table.family).convention
@@ -203,25 +205,31 @@ def test_json_is_valid_and_matches_csv(data: Data) -> None:
             assert "Condon" not in doc["convention"] and "No phase choice" in doc["convention"]
         assert doc["digits"] == data.recipe.digits
         assert doc["data_digest"] == data.meta.data_digest
-        rows = _csv_rows(data, table)[1:]
+        rows = _csv_rows(data, table)
+        header, rows = rows[0], rows[1:]
         n = len(HEADERS[table.family])
+        # the JSON carries the CSV's columns with the same names and meanings, then the list of equal forms
+        assert doc["columns"][: len(header)] == header
+        assert doc["columns"][len(header):] == (["members"] if "forms" in header else [])
         assert len(doc["rows"]) == len(rows) == len(table.entries)
         for row, csv_row, entry in zip(doc["rows"], rows, table.entries):
-            assert row["args"] == csv_row[:n]
-            assert [row["exact"], str(row["sign"]), str(row["p"]), str(row["q"]), row["decimal"]] == csv_row[n : n + 5]
-            assert all(type(row[k]) is int for k in ("sign", "p", "q"))
-            assert "square" not in row
+            assert len(row) == len(doc["columns"])
+            assert row[:n] == csv_row[:n] and all(type(x) is str for x in row[:n])
+            assert [row[n], str(row[n + 1]), str(row[n + 2]), str(row[n + 3]), row[n + 4]] == csv_row[n : n + 5]
+            assert all(type(row[k]) is int for k in range(n + 1, n + 4))
             if table.family in ("6j", "9j"):
-                assert len(row["forms"]) == len(entry.members) == int(csv_row[n + 5])
+                members = row[header.index("forms") + 1 :][-1]
+                assert len(members) == len(entry.members) == int(csv_row[n + 5]) == row[n + 5]
                 key_value = DOUBLED[table.family](*entry.key)
-                for form, sign in row["forms"]:
+                for form, sign in members:
                     member = [int(Fraction(x) * 2) for x in form.split()]
                     # every listed form equals sign * this symbol (Regge 1958/1959 symmetries)
                     assert DOUBLED[table.family](*member) == key_value * sign
             if table.family == "6j":
-                assert row["w"] == {"args": csv_row[n + 6].split(), "sign": int(csv_row[n + 7])}
+                iw = header.index("w")
+                assert [row[iw], str(row[iw + 1])] == csv_row[iw : iw + 2] and type(row[iw + 1]) is int
             else:
-                assert "w" not in row
+                assert "w" not in doc["columns"]
 
 
 # -- values.txt and the digest ---------------------------------------------------------------

@@ -85,11 +85,10 @@ CHANGES = [
      "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189627", ["<1 1; 1 -1 | 0 0>", "decimal"]),
     ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,", "1,1,1,-1,0,0,sqrt(1/3),1,1,2,", ["<1 1; 1 -1 | 0 0>", "q: "]),
     ("data/cg-j1-1-j2-1.csv", "1,1,1,-1,0,0,sqrt(1/3),1,1,3,", "1,1,1,-1,0,0,sqrt(1/3),-1,1,3,", ["<1 1; 1 -1 | 0 0>", "sign: "]),
-    ("data/6j-j1-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6","sign":1,"p":1,"q":36',
-     '"args":["1","1","1","1","1","1"],"exact":"1/6","sign":1,"p":1,"q":35',
-     ["{1 1 1; 1 1 1}", "q"]),
-    ("data/6j-j1-1.json", '"args":["1","1","1","1","1","1"],"exact":"1/6"',
-     '"args":["1","1","1","1","1","1"],"exact":"1/7"', ["{1 1 1; 1 1 1}", "exact"]),
+    ("data/6j-j1-1.json", '["1","1","1","1","1","1","1/6",1,1,36,',
+     '["1","1","1","1","1","1","1/6",1,1,35,', ["{1 1 1; 1 1 1}", "q"]),
+    ("data/6j-j1-1.json", '["1","1","1","1","1","1","1/6",', '["1","1","1","1","1","1","1/7",',
+     ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\n6j 1 1 1 1 1 1 1/6\n", "\n6j 1 1 1 1 1 1 1/9\n", ["{1 1 1; 1 1 1}", "exact"]),
     ("values.txt", "\ncg 1 1 1 -1 0 0 sqrt(1/3)\n", "\ncg 1 1 1 -1 0 0 -sqrt(1/3)\n", ["<1 1; 1 -1 | 0 0>"]),
 ]
@@ -262,8 +261,10 @@ _ROW_CG = "1,1,1,-1,0,0,sqrt(1/3),1,1,3,0.577350269189626\n"
 def _delete_row_everywhere(site: Path) -> None:
     """The cg row removed from CSV, JSON and values.txt; every digest and checksum updated to match."""
     _set_lines(site, "data/cg-j1-1-j2-1.csv", [l for l in _lines(site, "data/cg-j1-1-j2-1.csv") if l != _ROW_CG])
-    _set_lines(site, "data/cg-j1-1-j2-1.json", [l for l in _lines(site, "data/cg-j1-1-j2-1.json")
-                                            if '"args":["1","1","1","-1","0","0"]' not in l])
+    table = site / "data" / "cg-j1-1-j2-1.json"
+    doc = json.loads(table.read_text(encoding="utf-8"))
+    doc["rows"] = [r for r in doc["rows"] if r[:6] != ["1", "1", "1", "-1", "0", "0"]]
+    table.write_text(json.dumps(doc, ensure_ascii=False, separators=(",", ":")) + "\n", encoding="utf-8")
     _set_lines(site, "values.txt", [l for l in _lines(site, "values.txt") if l != "cg 1 1 1 -1 0 0 sqrt(1/3)\n"])
     old = json.loads((site / "manifest.json").read_text(encoding="utf-8"))["data_digest"]
     new = sha256_hex((site / "values.txt").read_bytes())
@@ -288,7 +289,8 @@ FORGERIES = {
     "cite-bib-digest": (lambda s: _sub_first(s, "cite.bib", r"(SHA-256 of values.txt\): )([0-9a-f])", _other_hex), "cite.bib"),
     "page-footer-digest": (lambda s: _sub_first(s, "index.html", r'(values.txt">)([0-9a-f])', _other_hex), "index.html"),
     "csv-w-sign": (lambda s: _sub_first(s, "data/6j-j1-1.csv", re.escape(_ROW_6J), _ROW_6J.replace(",-1\n", ",1\n")), "data/6j-j1-1.csv"),
-    "json-w-sign": (lambda s: _sub_first(s, "data/6j-j1-1.json", r'"sign":-1', '"sign":1'), "data/6j-j1-1.json"),
+    # the W columns of a row: its arguments, then its sign, before the list of equal forms
+    "json-w-sign": (lambda s: _sub_first(s, "data/6j-j1-1.json", r'("[0-9/ ]+",)-1,\[\[', r"\g<1>1,[["), "data/6j-j1-1.json"),
     "json-form-sign": (lambda s: _sub_first(s, "data/6j-j1-1.json", r'(\["[^"]+",)1\]', r"\1-1]"), "data/6j-j1-1.json"),
     "row-deleted-everywhere": (_delete_row_everywhere, "data/cg-j1-1-j2-1.csv"),
     "csv-row-removed-not-json": (
@@ -377,11 +379,13 @@ def test_value_by_value_catches_data_forgeries(capsys, site: Path, other_version
 
 
 @pytest.mark.parametrize("body", ['"rows": 5', '"rows": [{"args": null, "exact": "1", "square": "1", "decimal": "1"}]',
-                                  '"rows": [5]', '"rows": [{"args": [1], "exact": 1, "square": 1, "decimal": 1, "forms": 3, "w": 1}]'])
+                                  '"rows": [5]', '"rows": [{"args": [1], "exact": 1, "square": 1, "decimal": 1, "forms": 3, "w": 1}]',
+                                  '"rows": [[1]]', '"rows": [[null, 1, "x", [], {}, 0, "a", -1, null, 3, 1]]',
+                                  '"columns": 7, "rows": []'])
 def test_malformed_json_tables_are_problems_not_tracebacks(capsys, site: Path, other_version, body: str) -> None:
     path = site / "data" / "cg-j1-1-j2-1.json"
     doc = path.read_text(encoding="utf-8")
-    start = doc.index('"rows": [')
+    start = doc.index('"columns":[' if body.startswith('"columns"') else '"rows":[')
     path.write_text(doc[:start] + body + "\n}\n", encoding="utf-8")
     _forge_sums(site)
     status, out, err = _run(capsys, site)
@@ -401,11 +405,11 @@ def test_a_huge_forged_value_gives_a_short_line(capsys, site: Path, other_versio
 def test_malformed_json_tables_in_a_same_version_site_are_differences(capsys, site: Path, body: str) -> None:
     path = site / "data" / "6j-j1-1.json"
     doc = path.read_text(encoding="utf-8")
-    path.write_text(doc[: doc.index('"rows": [')] + body + "\n}\n", encoding="utf-8")
+    path.write_text(doc[: doc.index('"rows":[')] + body + "\n}\n", encoding="utf-8")
     _forge_sums(site)
     status, out, err = _run(capsys, site)
     assert status == 1 and err == "", (out, err)
-    assert any(line.startswith("  data/6j-j1-1.json line ") for line in out), out
+    assert any(line.startswith("  data/6j-j1-1.json") for line in out), out
 
 
 def test_a_listed_file_replaced_by_a_symlink_is_reported(capsys, site: Path, tmp_path: Path) -> None:

@@ -15,7 +15,7 @@ import json
 from typing import Iterator
 
 from ..buildinfo import BuildMeta, bibtex
-from ..compute import Shown, ValueBook
+from ..compute import ValueBook
 from ..families import Family
 from ..kinds import KIND_KEYS
 from ..plan import SitePlan, Table
@@ -23,7 +23,7 @@ from ..spins import half_text
 
 __all__ = ["canonical_values", "render_data", "TABLE_FORMAT", "VALUES_HEADER"]
 
-TABLE_FORMAT = "tablegen-table/1"
+TABLE_FORMAT = "tablegen-table/2"
 VALUES_HEADER = (
     "# tablegen canonical values, format 1\n"
     "# one line per value: family, arguments in the order of the symbol, exact value\n"
@@ -44,21 +44,21 @@ def canonical_values(book: ValueBook) -> bytes:
     return (VALUES_HEADER + "".join(lines)).encode("utf-8")
 
 
-def _parts_text(shown: Shown) -> list[str]:
-    """sign, p and q of sign*sqrt(p/q) as CSV fields (empty for a value that is a function)."""
-    return [str(x) for x in shown.parts] if shown.parts else ["", "", ""]
+def _cells(table: Table, fam: Family, book: ValueBook) -> Iterator[list]:
+    """Typed cells of every row, in the order of ``fam.data_columns``.
 
-
-def _rows(table: Table, fam: Family, book: ValueBook) -> Iterator[list[str]]:
-    """CSV rows in the order of ``fam.data_columns``."""
+    Integers stay integers (sign, p, q, counts, companion signs) and a value
+    that is a function has no sign, p or q (None); CSV and JSON both write
+    these same cells, so the two files cannot disagree.
+    """
     for entry in table.entries:
         shown = book[(table.kind, entry.key)]
-        row = [half_text(x) for x in entry.key] + [shown.exact, *_parts_text(shown), shown.decimal]
+        row = [half_text(x) for x in entry.key] + [shown.exact, *(shown.parts or (None, None, None)), shown.decimal]
         if entry.forms:
-            row.append(str(entry.forms))
+            row.append(entry.forms)
         for c in fam.companions:
             args, sign = c.mapping(entry.key)
-            row += [" ".join(half_text(x) for x in args), str(sign)]
+            row += [" ".join(half_text(x) for x in args), sign]
         yield row
 
 
@@ -66,12 +66,23 @@ def _csv(table: Table, fam: Family, book: ValueBook) -> bytes:
     buf = io.StringIO()
     writer = csv.writer(buf, lineterminator="\n")
     writer.writerow(fam.data_columns)
-    writer.writerows(_rows(table, fam, book))
+    writer.writerows(["" if x is None else str(x) for x in row] for row in _cells(table, fam, book))
     return buf.getvalue().encode("utf-8")
 
 
 def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
-    head = {
+    """The CSV's columns with their types, plus (for symbols filed by class) every equal form.
+
+    One compact line: the file is for programs (the CSV is the one to read
+    by eye), and naming every field in every row doubled its size.
+    """
+    columns = list(fam.data_columns)
+    rows = list(_cells(table, fam, book))
+    if "forms" in columns:
+        columns.append("members")
+        for row, entry in zip(rows, table.entries):
+            row.append([[" ".join(half_text(x) for x in m), s] for m, s in entry.members])
+    doc = {
         "format": TABLE_FORMAT,
         "tool": f"{meta.tool} {meta.version}",
         "table": table.id,
@@ -81,25 +92,10 @@ def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: i
         "digits": digits,
         "arguments": list(fam.kind_record.arguments),
         "data_digest": meta.data_digest,
+        "columns": columns,
+        "rows": rows,
     }
-    rows = []
-    for entry in table.entries:
-        shown = book[(table.kind, entry.key)]
-        row = {
-            "args": [half_text(x) for x in entry.key],
-            "exact": shown.exact,
-            **dict(zip(("sign", "p", "q"), shown.parts or (None, None, None))),
-            "decimal": shown.decimal,
-        }
-        if entry.forms:
-            row["forms"] = [[" ".join(half_text(x) for x in m), s] for m, s in entry.members]
-        for c in fam.companions:
-            args, sign = c.mapping(entry.key)
-            row[c.kind] = {"args": [half_text(x) for x in args], "sign": sign}
-        rows.append(json.dumps(row, ensure_ascii=False, separators=(",", ":")))
-    body = json.dumps(head, ensure_ascii=False, indent=1)[:-2]  # reopen the object: one row per line below
-    body += ',\n "rows": [\n  ' + ",\n  ".join(rows) + "\n ]\n}\n"
-    return body.encode("utf-8")
+    return (json.dumps(doc, ensure_ascii=False, separators=(",", ":")) + "\n").encode("utf-8")
 
 
 def render_data(plan: SitePlan, book: ValueBook, meta: BuildMeta, values_txt: bytes) -> Iterator[tuple[str, bytes]]:
