@@ -272,6 +272,19 @@ def test_values_txt_one_sorted_line_per_value(data: Data) -> None:
                 assert (c.kind, c.mapping(entry.key)[0]) in present
 
 
+def test_values_txt_header_names_each_kind_and_its_argument_order(data: Data) -> None:
+    text = data.values_txt.decode("utf-8")
+    header = [line for line in text.splitlines() if line.startswith("#")]
+    kinds = sorted({f for f, _, _ in _value_lines(data)}, key=_ORDER.__getitem__)
+    listed = [line.split(":")[0].lstrip("# ").strip() for line in header[3:]]
+    assert listed == kinds  # one line per kind present, in the order of the lines
+    for line, k in zip(header[3:], kinds):
+        # W(a b c d; e f) in Racah's letters (Racah 1942); the others as in README's tour
+        assert line.split(":", 1)[1].split("=")[0].split() == list(HEADERS.get(k, "a b c d e f".split()))
+    # no blanket phase claim: 6j and 9j have no phase choice of their own (Edmonds 1957, ch. 6)
+    assert not any("Condon" in line for line in header)
+
+
 def test_values_txt_values_agree_with_sympy(data: Data) -> None:
     for family, key, exact in _value_lines(data)[::3]:  # a third of them keeps this quick
         ref = _reference(family, [str(Fraction(t, 2)) for t in key])

@@ -16,32 +16,38 @@ from typing import Iterator
 
 from ..buildinfo import BuildMeta, bibtex
 from ..compute import ValueBook
-from ..families import Family
-from ..kinds import KIND_KEYS
+from ..families import Family, named_symbol
+from ..kinds import KIND_KEYS, kind
 from ..plan import SitePlan, Table
 from ..spins import half_text
 
-__all__ = ["canonical_values", "render_data", "TABLE_FORMAT", "VALUES_HEADER"]
+__all__ = ["canonical_values", "render_data", "TABLE_FORMAT", "values_header"]
 
 TABLE_FORMAT = "tablegen-table/2"
-VALUES_HEADER = (
+_VALUES_PREAMBLE = (
     "# tablegen canonical values, format 1\n"
-    "# one line per value: family, arguments in the order of the symbol, exact value\n"
-    "# families: cg <j1 m1; j2 m2 | J M>, 3j (j1 j2 j3; m1 m2 m3), 6j {j1 j2 j3; j4 j5 j6},\n"
-    "#           w W(a b c d; e f), 9j rows in order; Condon-Shortley phase\n"
-    "#           recouple3 j1 j2 j3 J j12 j23, recouple4 j1 j2 j3 j4 J j12 j34 j13 j24: recoupling coefficients\n"
-    "#           lsjj shells l1 l2 j1 j2 J L S: LS-jj coefficients (shells 1: equivalent particles)\n"
+    "# one line per value: kind, its arguments in the order listed here, exact value\n"
+    "# (each kind's phase convention: conventions.html, and 'convention' in every data table)\n"
 )
+
+
+def values_header(kinds: "list[str] | tuple[str, ...]") -> str:
+    """The comment lines of values.txt: the preamble, then one line per kind present, from its record.
+
+    It names argument orders only, never a convention, so that no line can
+    claim a phase for a kind that has none (6j and 9j have no phase choice).
+    """
+    lines = [f"#   {k}: {' '.join(kind(k).arguments)}  =  {named_symbol(kind(k))}\n" for k in kinds]
+    return _VALUES_PREAMBLE + "".join(lines)
 
 
 def canonical_values(book: ValueBook) -> bytes:
     """values.txt: every value of the build, sorted, one per line."""
-    order = {f: i for i, f in enumerate(KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j
-    lines = [
-        f"{family} {' '.join(half_text(x) for x in key)} {shown.exact}\n"
-        for (family, key), shown in sorted(book.items(), key=lambda kv: (order[kv[0][0]], kv[0][1]))
-    ]
-    return (VALUES_HEADER + "".join(lines)).encode("utf-8")
+    order = {f: i for i, f in enumerate(KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j, ...
+    items = sorted(book.items(), key=lambda kv: (order[kv[0][0]], kv[0][1]))
+    lines = [f"{k} {' '.join(half_text(x) for x in key)} {shown.exact}\n" for (k, key), shown in items]
+    kinds = sorted({k for k, _ in book}, key=order.__getitem__)
+    return (values_header(kinds) + "".join(lines)).encode("utf-8")
 
 
 def _cells(table: Table, fam: Family, book: ValueBook) -> Iterator[list]:
