@@ -3,7 +3,8 @@
 The plan knows every page and every id it promises (plan.internal_targets);
 the renderers know every other file they write.  While the files stream past
 on their way to the staging folder, :class:`LinkCheck` collects the links of
-each HTML page (href and src, relative to the page); ``finish`` then checks
+each HTML page (href and src, relative to the page, and the cell links a
+table's data-twin pattern makes); ``finish`` then checks
 each against that data and raises LinkError for the first one that points
 nowhere, before the new site replaces the old.  External links (a scheme such
 as https:) are left alone: the site is meant to work offline and has none.
@@ -16,6 +17,7 @@ import re
 from html import unescape
 from urllib.parse import unquote
 
+from .cellpattern import fill_cell_pattern
 from .errors import LinkError
 from .plan import internal_targets
 from .sitemodel import SitePlan
@@ -23,6 +25,8 @@ from .sitemodel import SitePlan
 __all__ = ["LinkCheck"]
 
 _LINK = re.compile(rb'\s(?:href|src)="([^"]*)"')
+_TWIN_TABLE = re.compile(rb'<table[^>]*\sdata-twin="([^"]*)"[^>]*>(.*?)</table>', re.S)
+_CELL_ID = re.compile(rb'<td id="([^"]*)"')
 _SCHEME = re.compile(r"^[a-z][a-z0-9+.-]*:", re.I)
 
 
@@ -41,14 +45,25 @@ class LinkCheck:
         if not path.endswith(".html"):
             return
         base = posixpath.dirname(path)
-        for m in _LINK.finditer(data):
-            href = unescape(m.group(1).decode("utf-8"))
+        for href in self._hrefs(data):
             if _SCHEME.match(href):
                 continue
             self.count += 1
             target, _, anchor = href.partition("#")
             resolved = posixpath.normpath(posixpath.join(base, unquote(target))) if target else path
             self.links.setdefault((resolved, unquote(anchor)), path)
+
+    @staticmethod
+    def _hrefs(data: bytes):
+        """Every link of a page: those written out, and those its script writes into cells (data-twin)."""
+        for m in _LINK.finditer(data):
+            yield unescape(m.group(1).decode("utf-8"))
+        for m in _TWIN_TABLE.finditer(data):
+            pattern = unescape(m.group(1).decode("utf-8"))
+            for cell in _CELL_ID.finditer(m.group(2)):
+                href = fill_cell_pattern(pattern, unescape(cell.group(1).decode("utf-8")))
+                if href is not None:
+                    yield href
 
     def finish(self) -> int:
         """Raise LinkError for the first broken link; return how many links were checked."""

@@ -100,6 +100,7 @@ class Section:
     row_anchors: tuple[str, ...] = ()
     params: tuple[tuple[str, int], ...] = ()
     column_tex: tuple[str, ...] = ()  # matrix layout: a LaTeX label per column when numbers do not say it
+    twin: str | None = None  # grid layout: path#anchor of each entry's twin, @name@ from the entry's anchor
 
 
 @dataclass(frozen=True, slots=True)

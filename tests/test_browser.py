@@ -589,3 +589,25 @@ def test_jump_box_lands_on_recoupling_cells(browser, recoupling_site):
         assert w.problems == []
     finally:
         w.close()
+
+
+@pytest.mark.parametrize("path", ["cg/j1-1-j2-0.5.html", "3j/j1-0.5-j2-1.html"])
+def test_each_cell_links_to_its_twin_as_the_plan_says(tab, site, path):
+    # the page script writes each cell's twin link from its table's pattern; the plan says where each must go
+    from tablegen.render.links import relative_url
+
+    _, plan, _ = site
+    tab.open(path)
+    made = tab.page.evaluate(
+        "Array.from(document.querySelectorAll('table[data-twin] td[id]'))"
+        ".map(td => [td.id, Array.from(td.querySelectorAll('a')).map(a => a.getAttribute('href'))])")
+    wanted = {e.anchor: relative_url(path, e.twin) for t in plan.tables if t.page == path for e in t.entries}
+    assert len(made) == len(wanted) > 5
+    for cell_id, hrefs in made:
+        assert hrefs == [wanted[cell_id]], cell_id
+    # following one lands on the same number: |1, 1>|1/2, -1/2> in J = 1/2 <-> its 3j (common practice, no source)
+    if path.startswith("cg/"):
+        tab.page.locator('td[id="J=1/2,M=1/2,m1=1"] a').click()
+        tab.page.wait_for_load_state("load")
+        assert tab.page.url.endswith("3j/j1-1-j2-0.5.html#j3=1/2,m3=-1/2,m1=1")
+    assert tab.problems == []

@@ -15,6 +15,7 @@ from urllib.parse import urlsplit
 import pytest
 
 from tablegen.buildinfo import BuildMeta
+from tablegen.cellpattern import fill_cell_pattern
 from tablegen.compute import compute_values
 from tablegen.layouts import ClassesLayout
 from tablegen.plan import plan_site
@@ -66,10 +67,17 @@ class _Page(HTMLParser):
             self.cell_links.setdefault(current, []).append(a["href"])
         if tag == "script" and "src" not in a and a.get("type") != "application/json":  # data blocks never run
             self.scripts_inline += 1
+        if tag == "table":
+            self._twin = a.get("data-twin")
+        if tag == "td" and a.get("id") and getattr(self, "_twin", None):
+            # the link site.js writes into the cell from the table's pattern (cellpattern's rule)
+            self.cell_links.setdefault(a["id"], []).append(fill_cell_pattern(self._twin, a["id"]))
         if tag in ("td", "tr", "li"):
             self._stack.append(a.get("id", current))
 
     def handle_endtag(self, tag):
+        if tag == "table":
+            self._twin = None
         if tag in ("td", "tr", "li") and self._stack:
             self._stack.pop()
 
@@ -475,7 +483,7 @@ def test_a_full_classes_or_grid_page_stays_under_two_megabytes(built):
 
 
 # -- "symbol = value" in LaTeX -------------------------------------------------------------
-_TABLE = re.compile(r'<table [^>]*?data-e="([^"]*)"(?: data-note="([^"]*)")?>(.*?)</table>', re.S)
+_TABLE = re.compile(r'<table [^>]*?data-e="([^"]*)"(?: data-note="([^"]*)")?[^>]*>(.*?)</table>', re.S)
 _CELL = re.compile(r'<td id="([^"]+)" data-t="([^"]*)"[^>]*>(.*?)</td>', re.S)
 _OWN = re.compile(r'<tr id="([^"]+)">(.*?)</tr>', re.S)
 

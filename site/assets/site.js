@@ -92,6 +92,44 @@
     return out;
   }
 
+  // The name=value pairs of a cell id such as "J=2,M=-1,m1=0".
+  function cellValues(id) {
+    var values = {}, pairs = id.split(/[,;]/), i, kv;
+    for (i = 0; i < pairs.length; i++) {
+      kv = pairs[i].split("=");
+      if (kv.length === 2) values[kv[0]] = kv[1];
+    }
+    return values;
+  }
+
+  // A table's data-twin is one link for all its cells: @name@ is the cell's value of that
+  // name, @-name@ its negative (the same rule as the build's link check, cellpattern.py).
+  function twinHref(pattern, id) {
+    var values = cellValues(id), missing = false;
+    var href = pattern.replace(/@(-?)([^@]+)@/g, function (all, minus, name) {
+      if (!(name in values)) { missing = true; return ""; }
+      var v = values[name];
+      if (!minus || v === "0") return v;
+      return v.charAt(0) === "-" ? v.slice(1) : "-" + v;
+    });
+    return missing ? null : href;
+  }
+
+  function addTwinLinks() {
+    var tables = doc.querySelectorAll("table[data-twin]"), i, k, cells, a, href;
+    for (i = 0; i < tables.length; i++) {
+      cells = tables[i].querySelectorAll("td[id]");
+      for (k = 0; k < cells.length; k++) {
+        href = twinHref(tables[i].getAttribute("data-twin"), cells[k].id);
+        if (!href) continue;
+        a = doc.createElement("a");
+        a.href = href;
+        a.textContent = tables[i].getAttribute("data-twin-label");
+        cells[k].appendChild(a);
+      }
+    }
+  }
+
   // "symbol = value" in LaTeX for a value.  A classes row gives the whole text (data-e on
   // the cell); a grid or matrix table gives its symbol with @name@ for each argument that
   // a cell's id (name=value pairs) or its corner note (the table's data-note) supplies.
@@ -100,11 +138,7 @@
     if (own) return own;
     var table = el.closest("table[data-e]");
     if (!table || !el.id) return null;
-    var values = {}, pairs = el.id.split(/[,;]/), i, kv;
-    for (i = 0; i < pairs.length; i++) {
-      kv = pairs[i].split("=");
-      if (kv.length === 2) values[kv[0]] = kv[1];
-    }
+    var values = cellValues(el.id);
     var note = table.getAttribute("data-note"), v = el.querySelector("var");
     if (note && v) values[note] = v.textContent.replace(/\u2212/g, "-");
     var missing = false;
@@ -672,6 +706,7 @@
   }
 
   function start() {
+    addTwinLinks();
     addCopyButtons();
     var box = doc.getElementById("jump");
     if (box && DATA && KIND_ORDER.length) { buildBox(box); addFindToggle(box); }

@@ -66,6 +66,13 @@ class GridLayout:
         """The page path with argument names in braces (the jump box fills them in)."""
         return f"{key}/j1-{{j1}}-j2-{{j2}}.html"
 
+    def twin_anchor_pattern(self, tk: int, sign: int, row_name: str) -> str:
+        """This layout's anchor for a twin's cell, filled from the twin's cell id (see cellpattern).
+
+        ``row_name`` is the twin's name for the projection, ``sign`` relates the two: ours = sign * theirs.
+        """
+        return f"{self.third}={half(tk)},{self.row}=@{'-' if sign < 0 else ''}{row_name}@,m1=@m1@"
+
     def anchor_pattern(self) -> str:
         return f"{self.third}={{{self.third}}},{self.row}={{{self.row}}},m1={{m1}}"
 
@@ -146,6 +153,7 @@ class GridLayout:
                 grid=tuple(grid),
                 row_anchors=tuple(f"{self.row_tag}:{third},{self.row}={half(tr)}" for tr in rows),
                 params=((self.third, tk),),
+                twin=f"{twin_page}#{tfam.layout.twin_anchor_pattern(tk, twin_sign, self.row)}" if tfam else None,
             ))
         tid = f"{fam.key}-j1-{file_code(tj1)}-j2-{file_code(tj2)}"
         return Table(

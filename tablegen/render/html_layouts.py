@@ -47,7 +47,6 @@ class Cell:
     math: Markup
     decimal: str
     note: str  # the quantum number not given by row and column (grid: m2)
-    twin: str | None  # relative link to the same number in the twin family
     zero: bool
     why: str = ""  # a zero: "id: text" of the selection rule that makes it zero
     source: str | None = None  # relative link to the value this one is made of (matrix layout's source)
@@ -124,7 +123,6 @@ def _cell(site: "_Site", page: Page, kind: str, entry: Entry, note: str) -> Cell
         math=Markup(mathml.value_inner(s.tex)),
         decimal=s.decimal,
         note=note,
-        twin=relative_url(page.path, entry.twin) if entry.twin else None,
         zero=not s.value,
         why=s.zero_rule,
         source=relative_url(page.path, entry.source) if entry.source else None,
@@ -170,6 +168,7 @@ def _grid_page(site: "_Site", page: Page) -> bytes:
             "columns": [_qn(c) for c in s.columns],
             "rows": _grid_rows(site, page, fam, s),
             "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params),
+            "twin": relative_url(page.path, s.twin) if s.twin else None,  # a pattern: see cellpattern
         }
         for s in table.sections
     ]
