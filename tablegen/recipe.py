@@ -30,6 +30,8 @@ Recipe file (TOML)::
     max_j = 3
     [state3]                    # coupled states ((j1 j2)j12 j3)J in product states and back: leaves in the range
     max_j = "1/2"
+    [state4]                    # coupled states ((j1 j2)j12, (j3 j4)j34)J in product states and back
+    max_j = "1/2"
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5 (ASCII digits,
 at most 40 characters, no j above limits.ENGINE_MAX_J).  The file is UTF-8,
