@@ -19,7 +19,7 @@ from typing import Callable
 
 from .kinds import Kind, kind
 from .kinds.sixj import w_of_sixj
-from .layouts import ClassesLayout, GridLayout, Layout, MatrixLayout
+from .layouts import ClassesLayout, Exchange, GridLayout, Layout, MatrixLayout
 from .symmetry import ninej_members, sixj_tetrahedral_members
 
 __all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
@@ -102,6 +102,11 @@ _LSJJ_CONVENTION = (
     "(s l)j multiplies row (j1, j2) by (−1)^(l1+l2+1−j1−j2). Rows (j1, j2), columns the terms ^(2S+1)L_J."
 )
 
+# the pages file l1 <= l2; exchanging the two particles (l1 <-> l2, j1 <-> j2) in both couplings costs
+# (-1)^(j1+j2-J) on the jj side and (-1)^(l1+l2-L) (-1)^(1-S) on the LS side (common practice, no source)
+_LSJJ_EXCHANGE = Exchange(when=("l1", "l2"), pairs=(("l1", "l2"), ("j1", "j2")),
+                          phase=("l1", "l2", "j1", "j2", "L", "S", "J"), constant=1)
+
 RECOUPLING_FAMILIES: tuple[Family, ...] = (
     Family(
         key="recouple3",
@@ -134,7 +139,8 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         nav_label="LS–jj",
         layout=MatrixLayout(block=("shells", "l1", "l2", "J"), row=("j1", "j2"), column=("L", "S"),
                             blocks=_rt.lsjj_blocks, count=_rt.lsjj_count, source="9j", source_key=ninej_of_lsjj,
-                            page_params=3, page_name=_rt.configuration, ranged=("l1", "l2")),
+                            page_params=3, page_name=_rt.configuration, ranged=("l1", "l2"),
+                            exchange=_LSJJ_EXCHANGE),
         convention=_LSJJ_CONVENTION + " Two shells (shells = 2: sp, pd, pp′ …): every term. Equivalent particles "
         "(shells = 1: p², d² …): only the Pauli-allowed terms (L + S even) and pairs (j1 ≤ j2, J even when "
         "j1 = j2); the jj state for j1 < j2 is the antisymmetric normalised [|j1 j2; J⟩ − (−1)^(j1+j2−J) "
