@@ -154,8 +154,11 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("3j", 0, 8),
         FamilyRange("6j", 0, 8),
         FamilyRange("9j", 0, 4),
-        FamilyRange("recouple3", 1, 2),
+        FamilyRange("recouple3", 1, 4),  # leaves 1/2 <= j1, j2, j3 <= 2 (a leaf 0 only gives 1 x 1 matrices)
+        FamilyRange("recouple4", 1, 2),  # leaves 1/2 and 1
         FamilyRange("lsjj", 0, 6),
+        FamilyRange("state3", 1, 1),  # three spins 1/2
+        FamilyRange("state4", 1, 1),  # four spins 1/2
     ),
 )
 

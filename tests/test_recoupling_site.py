@@ -28,7 +28,7 @@ from tablegen.recipe import DEFAULT_RECIPE, FamilyRange, Recipe, estimate_size
 from tablegen.values import ExactSum, Surd
 from tablegen.verify import verify_site
 
-RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2 (the default recipe stops at 1)
+RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2 (the default recipe goes to 2)
 
 
 @pytest.fixture(scope="module")
@@ -189,10 +189,13 @@ def test_size_guard_refuses_a_huge_recoupling_recipe():
 
 
 def test_default_recipe_has_the_families():
-    # within the site's size budget: three leaves 1/2 <= j <= 1, LS-jj for l <= 3; recouple4 only on request
-    assert DEFAULT_RECIPE.family("recouple3") == FamilyRange("recouple3", 1, 2)
+    # the issue: three leaves j1, j2, j3 <= 2 (from 1/2: a leaf 0 only gives 1 x 1 matrices), LS-jj for l <= 3,
+    # small four-leaf matrices (leaves 1/2 and 1), three and four spins 1/2 written out in product states
+    assert DEFAULT_RECIPE.family("recouple3") == FamilyRange("recouple3", 1, 4)
+    assert DEFAULT_RECIPE.family("recouple4") == FamilyRange("recouple4", 1, 2)
     assert DEFAULT_RECIPE.family("lsjj") == FamilyRange("lsjj", 0, 6)
-    assert DEFAULT_RECIPE.family("recouple4") is None
+    assert DEFAULT_RECIPE.family("state3") == FamilyRange("state3", 1, 1)
+    assert DEFAULT_RECIPE.family("state4") == FamilyRange("state4", 1, 1)
 
 
 def test_a_built_site_verifies(tmp_path):
@@ -238,7 +241,7 @@ def test_kind_value_matches_engine_api():
 
 
 # -- four angular momenta: recouple4, each cell linked to its 9j ------------------------------------------
-RANGE4 = FamilyRange("recouple4", 1, 2)  # leaves 1/2 and 1 (the default recipe shows 1/2 only)
+RANGE4 = FamilyRange("recouple4", 1, 2)  # leaves 1/2 and 1, as in the default recipe
 
 
 @pytest.fixture(scope="module")
