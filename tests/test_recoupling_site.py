@@ -550,7 +550,7 @@ def test_coupled_and_product_kets_cannot_be_confused(built_states):
     assert "|(1/2 1)3/2, 1/2; 2, 2⟩" in page  # coupled: (j1 j2)j12, j3; J, M
     assert "|1/2, 1/2⟩|1, 1⟩|1/2, 1/2⟩" in page  # product: one |j, m⟩ per angular momentum
     tex = files[table.tex].decode("utf-8")
-    assert "\\vert (\\frac{1}{2}\\,1)\\frac{3}{2},\\,\\frac{1}{2};\\,2,\\,2\\rangle &=" in tex
+    assert "\\vert (1/2\\,1)3/2,\\,1/2;\\,2,\\,2\\rangle &=" in tex
     assert "Rows written out:" in tex and "Columns written out:" in tex
 
 
@@ -665,7 +665,7 @@ def test_state4_kets_name_the_tree_and_cannot_be_confused(built_states4):
     assert "|1/2, 1/2⟩|1, 1⟩|1, −1⟩|1/2, −1/2⟩" in page  # product: one |j, m⟩ per angular momentum
     assert "((j1 j2)j12, (j3 j4)j34)J" in page  # the tree is stated on the page
     tex = files[table.tex].decode("utf-8")
-    assert "\\vert (\\frac{1}{2}\\,1)\\frac{3}{2},\\,(1\\,\\frac{1}{2})\\frac{1}{2};\\,1,\\,1\\rangle" in tex
+    assert "\\vert (1/2\\,1)3/2,\\,(1\\,1/2)1/2;\\,1,\\,1\\rangle" in tex
     assert "Rows written out:" in tex and "Columns written out:" in tex
 
 

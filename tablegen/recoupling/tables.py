@@ -171,14 +171,10 @@ def states_count(tree, lo: int, hi: int) -> int:
 
 
 def _tex(t: int) -> str:
+    """A quantum number inside a ket, in LaTeX: 1/2 slashed (kets of many spins stay one line high and short)."""
     from ..spins import half_text
 
-    text = half_text(t)
-    if "/" not in text:
-        return text
-    sign, body = ("-", text[1:]) if text.startswith("-") else ("", text)
-    n, d = body.split("/")
-    return f"{sign}\\frac{{{n}}}{{{d}}}"
+    return half_text(t)
 
 
 def coupled_ket(tree, params: tuple[tuple[str, int], ...], row: tuple[int, ...]) -> tuple[str, str]:
