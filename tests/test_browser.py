@@ -630,10 +630,13 @@ def test_jump_box_files_an_lsjj_with_l1_above_l2_under_l1_below_l2(browser, reco
         # equivalent particles in two different shells name no page: a message, no navigation
         w.page.goto((root / "index.html").as_uri())
         before = w.page.url
-        _type(w.page, "lsjj", ["1", "1", "0", "1/2", "1/2", "1", "1", "1"])
+        _type(w.page, "lsjj", ["1", "0", "1", "1/2", "1/2", "1", "1", "1"])
         out = w.page.locator("#jump output")
         out.wait_for(state="visible")
         assert "no LS–jj transformation of two particles page for shells = 1, l1 = 0, l2 = 1" in out.text_content()
+        assert w.page.url == before
+        _type(w.page, "lsjj", ["1", "1", "0", "1/2", "1/2", "1", "1", "1"])  # the same with l1 > l2: named as typed
+        w.page.wait_for_function("document.querySelector('#jump output').textContent.indexOf('l1 = 1, l2 = 0') >= 0")
         assert w.page.url == before
         assert w.problems == []
     finally:

@@ -363,7 +363,7 @@
     if (!inRange(fam, params)) {
       return result("bad", fam.params.join(" and ") + " must be in this build's range " + rangeText(fam) + ".");
     }
-    var other = exchanged(fam, named);
+    var typed = named, other = exchanged(fam, named);
     if (other) {
       named = other.named;
       sign = other.sign;
@@ -378,7 +378,7 @@
     if (fam.paths && fam.paths.indexOf(path) < 0) {
       var which = page.match(/\{\w+\}/g).map(function (b) {  // the names the page is named by
         var name = b.slice(1, -1);
-        return name + " = " + nice(named[name]);
+        return name + " = " + nice(typed[name]);
       }).join(", ");
       return result("bad", "This build has no " + fam.title + " page for " + which + ".");
     }
