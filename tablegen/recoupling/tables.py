@@ -166,8 +166,30 @@ def states_blocks(tree, lo: int, hi: int) -> Iterator[MatrixBlock]:
 
 
 def states_count(tree, lo: int, hi: int) -> int:
-    """Exact number of cells of states_blocks(tree, lo, hi)."""
-    return sum(len(r) * len(c) for *_, r, c in _states_shapes(tree, lo, hi))
+    """Exact number of cells of states_blocks(tree, lo, hi), without listing them (the size guard asks first).
+
+    Each block is square: for leaves js and projection M there are as many coupled states as product states
+    with m1 + ... + mn = M, n_M; so the cells are the sum over leaf sets of the sum over M of n_M squared,
+    and n_M, which depends only on the multiset of leaves, comes from multiplying the leaves' m-polynomials.
+    """
+    from collections import Counter
+    from itertools import combinations_with_replacement
+    from math import factorial
+
+    total = 0
+    for js in combinations_with_replacement(range(lo, hi + 1), tree.leaves):
+        counts = {0: 1}
+        for j in js:
+            step: dict[int, int] = {}
+            for m, n in counts.items():
+                for tm in range(-j, j + 1, 2):
+                    step[m + tm] = step.get(m + tm, 0) + n
+            counts = step
+        orders = factorial(tree.leaves)  # the leaf sets with this multiset of leaves
+        for n in Counter(js).values():
+            orders //= factorial(n)
+        total += orders * sum(n * n for n in counts.values())
+    return total
 
 
 def _tex(t: int) -> str:
