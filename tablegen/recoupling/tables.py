@@ -70,8 +70,34 @@ def recouple4_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
 
 
 def recouple4_count(lo: int, hi: int) -> int:
-    """Exact number of cells of recouple4_blocks(lo, hi)."""
-    return sum(len(rows) * len(cols) for *_, rows, cols in _recouple4_shapes(lo, hi))
+    """Exact number of cells of recouple4_blocks(lo, hi), without listing them (the size guard asks first).
+
+    A block's rows are the pairs (j12, j34) coupling to J and its columns the pairs (j13, j24): the cells
+    are the sum over J of the two pair counts multiplied, and a pair count depends only on the two pairs
+    of leaves, whatever their order."""
+    cache: dict = {}
+
+    def pairs(a: int, b: int, c: int, d: int) -> dict[int, int]:
+        """{2J: number of (x, y), x from a and b, y from c and d, coupling to J}."""
+        key = tuple(sorted((tuple(sorted((a, b))), tuple(sorted((c, d))))))
+        if key not in cache:
+            out: dict[int, int] = {}
+            for x in _between(a, b):
+                for y in _between(c, d):
+                    for tJ in _between(x, y):
+                        out[tJ] = out.get(tJ, 0) + 1
+            cache[key] = out
+        return cache[key]
+
+    js = range(lo, hi + 1)
+    total = 0
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                for j4 in js:
+                    rows, cols = pairs(j1, j2, j3, j4), pairs(j1, j3, j2, j4)
+                    total += sum(n * cols.get(tJ, 0) for tJ, n in rows.items())
+    return total
 
 
 # -- two-particle LS <-> jj: a page per configuration (shells, l1, l2), a block per J -----------------------
