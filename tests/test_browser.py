@@ -546,51 +546,6 @@ def test_the_jump_box_reaches_a_pair_split_into_pages(browser, tmp_path):
         w.close()
 
 
-@pytest.fixture(scope="module")
-def recoupling_site(tmp_path_factory):
-    """A build with the recoupling families (issue 10): rows and columns named by several arguments."""
-    from tablegen.build import render_outputs
-    from tablegen.recipe import FamilyRange, Recipe
-
-    recipe = Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("recouple3", 1, 2), FamilyRange("lsjj", 0, 2),
-                              FamilyRange("state3", 1, 1), FamilyRange("state4", 1, 1)))
-    plan = plan_site(recipe)
-    _, outputs = render_outputs(plan, compute_values(plan, jobs=1))
-    root = tmp_path_factory.mktemp("recoupling") / "site"
-    for path, data in outputs:
-        (root / path).parent.mkdir(parents=True, exist_ok=True)
-        (root / path).write_bytes(data)
-    return root, plan
-
-
-def test_jump_box_lands_on_recoupling_cells(browser, recoupling_site):
-    root, plan = recoupling_site
-    w = Watched(browser, root)
-    try:
-        # <(1/2 1)1/2, 1/2; 1 | 1/2, (1 1/2)3/2; 1>
-        w.open("index.html")
-        _type(w.page, "recouple3", ["1/2", "1", "1/2", "1", "1/2", "3/2"])
-        layout = plan.family("recouple3").layout
-        block = layout.block_anchor((("j1", 1), ("j2", 2), ("j3", 1), ("J", 2)))
-        _landed(w.page, layout.page_path("recouple3", 1), layout.anchor(block, 1, 3))
-        # p^2, J = 2: <(1/2, 3/2); 2 | 1D2>, the page of a configuration named by shells, l1, l2
-        w.page.goto((root / "index.html").as_uri())
-        _type(w.page, "lsjj", ["1", "1", "1", "1/2", "3/2", "2", "0", "2"])  # LSjj(shells; l1 l2; j1 j2; L S; J)
-        layout = plan.family("lsjj").layout
-        block = layout.block_anchor((("shells", 2), ("l1", 2), ("l2", 2), ("J", 4)))
-        _landed(w.page, layout.page_path("lsjj", 2, 2, 2), layout.anchor(block, (1, 3), (4, 0)))
-        # three spins 1/2: the product state |1/2,1/2>|1/2,-1/2>|1/2,1/2> in |(1/2 1/2)1, 1/2; 3/2, 1/2>
-        w.page.goto((root / "index.html").as_uri())
-        # fields in the order of the symbol <j1 m1; j2 m2; j3 m3 | j12 J M>
-        _type(w.page, "state3", ["1/2", "1/2", "1/2", "-1/2", "1/2", "1/2", "1", "3/2", "1/2"])
-        layout = plan.family("state3").layout
-        block = layout.block_anchor((("j1", 1), ("j2", 1), ("j3", 1), ("M", 1)))
-        _landed(w.page, layout.page_path("state3", 1, 1, 1), layout.anchor(block, (2, 3), (1, -1, 1)))
-        assert w.problems == []
-    finally:
-        w.close()
-
-
 def test_jump_box_lands_on_four_spin_states(browser, recoupling_site):
     root, plan = recoupling_site
     w = Watched(browser, root)
@@ -638,6 +593,51 @@ def test_jump_box_files_an_lsjj_with_l1_above_l2_under_l1_below_l2(browser, reco
         _type(w.page, "lsjj", ["1", "1", "0", "1/2", "1/2", "1", "1", "1"])  # the same with l1 > l2: named as typed
         w.page.wait_for_function("document.querySelector('#jump output').textContent.indexOf('l1 = 1, l2 = 0') >= 0")
         assert w.page.url == before
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+@pytest.fixture(scope="module")
+def recoupling_site(tmp_path_factory):
+    """A build with the recoupling families (issue 10): rows and columns named by several arguments."""
+    from tablegen.build import render_outputs
+    from tablegen.recipe import FamilyRange, Recipe
+
+    recipe = Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("recouple3", 1, 2), FamilyRange("lsjj", 0, 2),
+                              FamilyRange("state3", 1, 1), FamilyRange("state4", 1, 1)))
+    plan = plan_site(recipe)
+    _, outputs = render_outputs(plan, compute_values(plan, jobs=1))
+    root = tmp_path_factory.mktemp("recoupling") / "site"
+    for path, data in outputs:
+        (root / path).parent.mkdir(parents=True, exist_ok=True)
+        (root / path).write_bytes(data)
+    return root, plan
+
+
+def test_jump_box_lands_on_recoupling_cells(browser, recoupling_site):
+    root, plan = recoupling_site
+    w = Watched(browser, root)
+    try:
+        # <(1/2 1)1/2, 1/2; 1 | 1/2, (1 1/2)3/2; 1>
+        w.open("index.html")
+        _type(w.page, "recouple3", ["1/2", "1", "1/2", "1", "1/2", "3/2"])
+        layout = plan.family("recouple3").layout
+        block = layout.block_anchor((("j1", 1), ("j2", 2), ("j3", 1), ("J", 2)))
+        _landed(w.page, layout.page_path("recouple3", 1), layout.anchor(block, 1, 3))
+        # p^2, J = 2: <(1/2, 3/2); 2 | 1D2>, the page of a configuration named by shells, l1, l2
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "lsjj", ["1", "1", "1", "1/2", "3/2", "2", "0", "2"])  # LSjj(shells; l1 l2; j1 j2; L S; J)
+        layout = plan.family("lsjj").layout
+        block = layout.block_anchor((("shells", 2), ("l1", 2), ("l2", 2), ("J", 4)))
+        _landed(w.page, layout.page_path("lsjj", 2, 2, 2), layout.anchor(block, (1, 3), (4, 0)))
+        # three spins 1/2: the product state |1/2,1/2>|1/2,-1/2>|1/2,1/2> in |(1/2 1/2)1, 1/2; 3/2, 1/2>
+        w.page.goto((root / "index.html").as_uri())
+        # fields in the order of the symbol <j1 m1; j2 m2; j3 m3 | j12 J M>
+        _type(w.page, "state3", ["1/2", "1/2", "1/2", "-1/2", "1/2", "1/2", "1", "3/2", "1/2"])
+        layout = plan.family("state3").layout
+        block = layout.block_anchor((("j1", 1), ("j2", 1), ("j3", 1), ("M", 1)))
+        _landed(w.page, layout.page_path("state3", 1, 1, 1), layout.anchor(block, (2, 3), (1, -1, 1)))
         assert w.problems == []
     finally:
         w.close()
