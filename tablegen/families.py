@@ -14,12 +14,12 @@ Nothing registers itself on import: :data:`FAMILIES` is the registry.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from functools import cached_property
+from functools import cached_property, partial
 from typing import Callable
 
 from .kinds import Kind, kind
 from .kinds.sixj import w_of_sixj
-from .layouts import ClassesLayout, GridLayout, Layout, MatrixLayout
+from .layouts import ClassesLayout, Exchange, GridLayout, Layout, MatrixLayout
 from .symmetry import ninej_members, sixj_tetrahedral_members
 
 __all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
@@ -92,6 +92,7 @@ def named_symbol(k: Kind, values: "tuple[str, ...] | None" = None) -> str:
 # -- recoupling families (issue 10): matrices between two coupling trees, cells linked to their symbol ---------
 from .kinds.lsjj import ninej_of_lsjj  # noqa: E402
 from .kinds.recoupling import ninej_of_recouple4, sixj_of_recouple3  # noqa: E402
+from .kinds.states import TREE3, TREE4  # noqa: E402
 from .recoupling import tables as _rt  # noqa: E402
 from .recoupling.tables import recouple3_blocks, recouple3_count, recouple4_blocks, recouple4_count  # noqa: E402
 
@@ -100,6 +101,11 @@ _LSJJ_CONVENTION = (
     "{l1 1/2 j1; l2 1/2 j2; L S J}, s1 = s2 = 1/2. Each particle is coupled in the order (l s)j; the order "
     "(s l)j multiplies row (j1, j2) by (−1)^(l1+l2+1−j1−j2). Rows (j1, j2), columns the terms ^(2S+1)L_J."
 )
+
+# the pages file l1 <= l2; exchanging the two particles (l1 <-> l2, j1 <-> j2) in both couplings costs
+# (-1)^(j1+j2-J) on the jj side and (-1)^(l1+l2-L) (-1)^(1-S) on the LS side (common practice, no source)
+_LSJJ_EXCHANGE = Exchange(when=("l1", "l2"), pairs=(("l1", "l2"), ("j1", "j2")),
+                          phase=("l1", "l2", "j1", "j2", "L", "S", "J"), constant=1)
 
 RECOUPLING_FAMILIES: tuple[Family, ...] = (
     Family(
@@ -133,7 +139,8 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         nav_label="LS–jj",
         layout=MatrixLayout(block=("shells", "l1", "l2", "J"), row=("j1", "j2"), column=("L", "S"),
                             blocks=_rt.lsjj_blocks, count=_rt.lsjj_count, source="9j", source_key=ninej_of_lsjj,
-                            page_params=3, page_name=_rt.configuration, ranged=("l1", "l2")),
+                            page_params=3, page_name=_rt.configuration, ranged=("l1", "l2"),
+                            exchange=_LSJJ_EXCHANGE),
         convention=_LSJJ_CONVENTION + " Two shells (shells = 2: sp, pd, pp′ …): every term. Equivalent particles "
         "(shells = 1: p², d² …): only the Pauli-allowed terms (L + S even) and pairs (j1 ≤ j2, J even when "
         "j1 = j2); the jj state for j1 < j2 is the antisymmetric normalised [|j1 j2; J⟩ − (−1)^(j1+j2−J) "
@@ -145,12 +152,30 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         title="Coupled states of three angular momenta",
         nav_label="States of 3",
         layout=MatrixLayout(block=("j1", "j2", "j3", "M"), row=("j12", "J"), column=("m1", "m2", "m3"),
-                            blocks=_rt.states3_blocks, count=_rt.states3_count, page_params=3,
-                            row_ket=_rt.coupled_ket3, column_ket=_rt.product_ket3, ranged=("j1", "j2", "j3")),
+                            blocks=partial(_rt.states_blocks, TREE3), count=partial(_rt.states_count, TREE3),
+                            page_params=3, row_ket=partial(_rt.coupled_ket, TREE3),
+                            column_ket=partial(_rt.product_ket, TREE3), ranged=("j1", "j2", "j3")),
         convention="Tree ((j1 j2)j12 j3)J, Condon–Shortley phase: ⟨j1 m1; j2 m2; j3 m3 | (j1 j2)j12, j3; J M⟩ = "
         "⟨j1 m1; j2 m2 | j12 m1+m2⟩ ⟨j12 m1+m2; j3 m3 | J M⟩. Coupled states are written |(j1 j2)j12, j3; J, M⟩, "
         "product states |j1, m1⟩|j2, m2⟩|j3, m3⟩. Rows: coupled states in product states; columns: product "
         "states in coupled states (the matrix is real and orthogonal, its inverse the transpose).",
+    ),
+    Family(
+        key="state4",
+        kind="state4",
+        title="Coupled states of four angular momenta",
+        nav_label="States of 4",
+        layout=MatrixLayout(block=("j1", "j2", "j3", "j4", "M"), row=("j12", "j34", "J"),
+                            column=("m1", "m2", "m3", "m4"), blocks=partial(_rt.states_blocks, TREE4),
+                            count=partial(_rt.states_count, TREE4), page_params=4,
+                            row_ket=partial(_rt.coupled_ket, TREE4), column_ket=partial(_rt.product_ket, TREE4),
+                            ranged=("j1", "j2", "j3", "j4")),
+        convention="Tree ((j1 j2)j12, (j3 j4)j34)J (two pairs, the rows of the four-leaf recoupling), "
+        "Condon–Shortley phase: ⟨j1 m1; j2 m2; j3 m3; j4 m4 | (j1 j2)j12, (j3 j4)j34; J M⟩ = "
+        "⟨j1 m1; j2 m2 | j12 m1+m2⟩ ⟨j3 m3; j4 m4 | j34 m3+m4⟩ ⟨j12 m1+m2; j34 m3+m4 | J M⟩. Coupled states are "
+        "written |(j1 j2)j12, (j3 j4)j34; J, M⟩, product states |j1, m1⟩|j2, m2⟩|j3, m3⟩|j4, m4⟩. Rows: coupled "
+        "states in product states; columns: product states in coupled states (the matrix is real and "
+        "orthogonal, its inverse the transpose).",
     ),
 )
 # -- end of the recoupling families ---------------------------------------------------------------------------

@@ -30,6 +30,8 @@ Recipe file (TOML)::
     max_j = 3
     [state3]                    # coupled states ((j1 j2)j12 j3)J in product states and back: leaves in the range
     max_j = "1/2"
+    [state4]                    # coupled states ((j1 j2)j12, (j3 j4)j34)J in product states and back
+    max_j = "1/2"
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5 (ASCII digits,
 at most 40 characters, no j above limits.ENGINE_MAX_J).  The file is UTF-8,
@@ -152,8 +154,11 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("3j", 0, 8),
         FamilyRange("6j", 0, 8),
         FamilyRange("9j", 0, 4),
-        FamilyRange("recouple3", 1, 2),
+        FamilyRange("recouple3", 1, 4),  # leaves 1/2 <= j1, j2, j3 <= 2 (a leaf 0 only gives 1 x 1 matrices)
+        FamilyRange("recouple4", 1, 2),  # leaves 1/2 and 1
         FamilyRange("lsjj", 0, 6),
+        FamilyRange("state3", 1, 1),  # three spins 1/2
+        FamilyRange("state4", 1, 1),  # four spins 1/2
     ),
 )
 

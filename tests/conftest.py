@@ -114,6 +114,7 @@ SLOW_MODULES = ("test_browser.py", "test_render_latex.py", "test_site.py", "test
 SLOW_TESTS = (
     "test_four_leaves_every_pair_every_order",
     "test_three_leaves_every_pair_every_order",
+    "test_zero_leaves_every_pair_every_order",
     "test_ninej_fast_path_equals_three_sixj",
     "test_sympy_at_random_angles_30_digits",
     "test_orthonormal_on_the_sphere_30_digits",

@@ -546,6 +546,58 @@ def test_the_jump_box_reaches_a_pair_split_into_pages(browser, tmp_path):
         w.close()
 
 
+def test_jump_box_lands_on_four_spin_states(browser, recoupling_site):
+    root, plan = recoupling_site
+    w = Watched(browser, root)
+    try:
+        # fields in the order of the symbol <j1 m1; j2 m2; j3 m3; j4 m4 | j12 j34 J M>
+        w.open("index.html")
+        _type(w.page, "state4", ["1/2", "1/2", "1/2", "-1/2", "1/2", "1/2", "1/2", "-1/2", "1", "0", "1", "0"])
+        layout = plan.family("state4").layout
+        block = layout.block_anchor((("j1", 1), ("j2", 1), ("j3", 1), ("j4", 1), ("M", 0)))
+        _landed(w.page, layout.page_path("state4", 1, 1, 1, 1), layout.anchor(block, (2, 0, 2), (1, -1, 1, -1)))
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+def test_jump_box_files_an_lsjj_with_l1_above_l2_under_l1_below_l2(browser, recoupling_site):
+    # the site has the page sp, not ps: the box lands on the exchanged form and says the sign
+    from tablegen.kinds import kind
+
+    root, plan = recoupling_site
+    layout = plan.family("lsjj").layout
+    k = kind("lsjj")
+    typed = (4, 2, 0, 1, 1, 2, 2, 2)  # LSjj(2; 1 0; 1/2 1/2; 1 1; 1): l1 = 1 > l2 = 0, particles in two shells
+    filed, sign = layout.exchange.filed(k.arguments, typed)
+    assert filed == (4, 0, 2, 1, 1, 2, 2, 2) and k.doubled(*typed) == sign * k.doubled(*filed) != 0
+    w = Watched(browser, root)
+    try:
+        w.open("index.html")
+        _type(w.page, "lsjj", ["2", "1", "0", "1/2", "1/2", "1", "1", "1"])  # LSjj(shells; l1 l2; j1 j2; L S; J)
+        block = layout.block_anchor((("shells", 4), ("l1", 0), ("l2", 2), ("J", 2)))
+        _landed(w.page, layout.page_path("lsjj", 4, 0, 2), layout.anchor(block, (1, 1), (2, 2)))
+        note = w.page.locator("#jump-note .ctx").text_content()
+        assert note.startswith("Filed as LSjj(2; 0 1; 1/2 1/2; 1 1; 1)"), note
+        assert ("\u22121 \u00d7" in note) == (sign < 0)
+        said = w.page.locator("#jump-note .said")
+        assert said.get_attribute("data-value") == k.doubled(*typed).latex("root")  # the typed form's own value
+        # equivalent particles in two different shells name no page: a message, no navigation
+        w.page.goto((root / "index.html").as_uri())
+        before = w.page.url
+        _type(w.page, "lsjj", ["1", "0", "1", "1/2", "1/2", "1", "1", "1"])
+        out = w.page.locator("#jump output")
+        out.wait_for(state="visible")
+        assert "no LS–jj transformation of two particles page for shells = 1, l1 = 0, l2 = 1" in out.text_content()
+        assert w.page.url == before
+        _type(w.page, "lsjj", ["1", "1", "0", "1/2", "1/2", "1", "1", "1"])  # the same with l1 > l2: named as typed
+        w.page.wait_for_function("document.querySelector('#jump output').textContent.indexOf('l1 = 1, l2 = 0') >= 0")
+        assert w.page.url == before
+        assert w.problems == []
+    finally:
+        w.close()
+
+
 @pytest.fixture(scope="module")
 def recoupling_site(tmp_path_factory):
     """A build with the recoupling families (issue 10): rows and columns named by several arguments."""
@@ -553,7 +605,7 @@ def recoupling_site(tmp_path_factory):
     from tablegen.recipe import FamilyRange, Recipe
 
     recipe = Recipe(families=(FamilyRange("6j", 0, 2), FamilyRange("recouple3", 1, 2), FamilyRange("lsjj", 0, 2),
-                              FamilyRange("state3", 1, 1)))
+                              FamilyRange("state3", 1, 1), FamilyRange("state4", 1, 1)))
     plan = plan_site(recipe)
     _, outputs = render_outputs(plan, compute_values(plan, jobs=1))
     root = tmp_path_factory.mktemp("recoupling") / "site"

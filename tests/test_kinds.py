@@ -22,9 +22,9 @@ from tablegen.triads import is_triad
 
 
 def test_the_list_and_lookup():
-    assert KIND_KEYS == ("cg", "3j", "6j", "w", "9j", "recouple3", "recouple4", "lsjj", "state3")
+    assert KIND_KEYS == ("cg", "3j", "6j", "w", "9j", "recouple3", "recouple4", "lsjj", "state3", "state4")
     assert [kind(k) for k in KIND_KEYS] == list(KINDS)
-    with pytest.raises(ValueError, match="argument kind = 'x': must be one of cg, 3j, 6j, w, 9j, recouple3, recouple4, lsjj, state3"):
+    with pytest.raises(ValueError, match="argument kind = 'x': must be one of cg, 3j, 6j, w, 9j, recouple3, recouple4, lsjj, state3, state4"):
         kind("x")
 
 

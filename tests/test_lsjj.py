@@ -220,3 +220,44 @@ def test_equivalent_normalisation_by_explicit_antisymmetrisation(l):
                 ls = _antisymmetrised(_ls_state(l, L, tS, m.J))
                 want = sum(v * ls.get(k, 0) for k, v in jj.items())
                 assert (value.to_sympy() - want).simplify() == 0, (l, m.J, tj1, tj2, L, tS)
+
+
+def test_exchanging_the_particles_is_the_phase_the_site_files_by():
+    # exchanging particles 1 and 2 in both couplings: (-1)^(j1+j2-J) on the jj side, (-1)^(l1+l2-L)(-1)^(1-S)
+    # on the LS side (common practice, no source); the lsjj layout's Exchange record states it as data and
+    # the jump box applies it to land an l1 > l2 coefficient on the page of l1 < l2
+    from tablegen.families import family
+    from tablegen.kinds import kind
+
+    k, exchange = kind("lsjj"), family("lsjj").layout.exchange
+    nonzero = 0
+    for l1, l2 in itertools.permutations(range(4), 2):
+        for j1, j2 in itertools.product((2 * l1 - 1, 2 * l1 + 1), (2 * l2 - 1, 2 * l2 + 1)):
+            for J, L, S in itertools.product(range(0, 2 * (l1 + l2) + 3, 2), range(0, 2 * (l1 + l2) + 1, 2), (0, 2)):
+                if j1 < 0 or j2 < 0:
+                    continue
+                key = (4, 2 * l1, 2 * l2, j1, j2, J, L, S)
+                filed = exchange.filed(k.arguments, key)
+                if l1 < l2:
+                    assert filed is None
+                    continue
+                other, sign = filed
+                assert other == (4, 2 * l2, 2 * l1, j2, j1, J, L, S)
+                assert k.doubled(*key) == sign * k.doubled(*other), key
+                nonzero += bool(k.doubled(*key))
+    assert nonzero > 100
+
+
+def test_jump_data_carries_the_exchange_and_the_pages_of_lsjj():
+    from tablegen.plan import plan_site
+    from tablegen.recipe import FamilyRange, Recipe
+    from tablegen.render.jumpdata import jump_data
+
+    plan = plan_site(Recipe(families=(FamilyRange("lsjj", 0, 2), FamilyRange("state4", 1, 1))))
+    data = jump_data(plan)["families"]
+    assert data["lsjj"]["exchange"] == {"when": ["l1", "l2"], "pairs": [["l1", "l2"], ["j1", "j2"]],
+                                        "phase": ["l1", "l2", "j1", "j2", "L", "S", "J"], "constant": 1}
+    # s^2, p^2, ss', sp, pp' (l <= 1): the box refuses any other configuration instead of sending to a missing page
+    assert data["lsjj"]["paths"] == sorted(t.page for t in plan.tables_of("lsjj")) and len(data["lsjj"]["paths"]) == 5
+    assert all("l1-1_l2-0" not in p for p in data["lsjj"]["paths"])
+    assert "exchange" not in data["state4"]

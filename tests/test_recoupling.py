@@ -157,6 +157,25 @@ def test_four_leaves_every_pair_every_order():
     assert k >= len(leaf_sets) and checked > 50_000
 
 
+def test_zero_leaves_every_pair_every_order():
+    # leaves <= 3/2 include j = 0 (a leaf that couples to nothing: intermediates equal their sibling); brute
+    # force as above.  Three leaves: every pair of the 12 x 12 trees with every leaf set holding a 0.  Four
+    # leaves: the 5 x 120 pairs of test_four_leaves_every_pair_every_order, the 175 leaf sets holding a 0
+    # dealt out in turn
+    with_zero = lambda n: [v for v in itertools.product((0,) + LEAF_TJ, repeat=n) if 0 in v]  # noqa: E731
+    checked = 0
+    for t1, t2 in itertools.product(all_trees(("a", "b", "c"), "e"), all_trees(("a", "b", "c"), "g")):
+        for values in with_zero(3):
+            checked += check_all_entries(t1, t2, dict(zip("abc", values)))
+    sets4, k = with_zero(4), 0
+    assert len(sets4) == 175
+    for t1, t2 in itertools.product(all_trees(("a", "b", "c", "d"), "e", every_order=False),
+                                    all_trees(("a", "b", "c", "d"), "g")):
+        checked += check_all_entries(t1, t2, dict(zip("abcd", sets4[k % len(sets4)])))
+        k += 1
+    assert k == 600 and checked > 10_000
+
+
 def test_sympy_clebsch_gordan_sample():
     # sympy.physics.wigner.clebsch_gordan as the CG source, exact sympy arithmetic
     import sympy

@@ -13,6 +13,7 @@ import itertools
 import json
 import shutil
 import subprocess
+from collections import Counter
 from fractions import Fraction
 
 import pytest
@@ -27,7 +28,7 @@ from tablegen.recipe import DEFAULT_RECIPE, FamilyRange, Recipe, estimate_size
 from tablegen.values import ExactSum, Surd
 from tablegen.verify import verify_site
 
-RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2 (the default recipe stops at 1)
+RANGE = FamilyRange("recouple3", 1, 3)  # leaves 1/2 <= j <= 3/2 (the default recipe goes to 2)
 
 
 @pytest.fixture(scope="module")
@@ -169,7 +170,8 @@ def test_page_data_and_latex(built):
 
 
 @pytest.mark.parametrize("key, lo, hi", [("recouple3", 0, 3), ("recouple3", 1, 4), ("recouple3", 2, 2),
-                                          ("recouple4", 1, 2), ("lsjj", 0, 6), ("lsjj", 1, 3), ("state3", 1, 2)])
+                                          ("recouple4", 1, 2), ("lsjj", 0, 6), ("lsjj", 1, 3), ("state3", 1, 2),
+                                          ("state4", 1, 2), ("state4", 0, 1)])
 def test_size_estimate_is_the_exact_count(key, lo, hi):
     recipe = Recipe(families=(FamilyRange(key, lo, hi),))
     n = sum(len(t.entries) for t in plan_site(recipe).tables)
@@ -184,13 +186,21 @@ def test_size_guard_refuses_a_huge_recoupling_recipe():
     with pytest.raises(TooLargeError, match=r"recipe too large .*recouple3: [0-9,]+\)"):
         check_size(Recipe(families=(FamilyRange("recouple3", 0, 200),)))
     assert check_size(Recipe(families=(FamilyRange("recouple3", 0, 4),)))["recouple3"] == 1359
+    # the coupled states count their cells from the m-polynomials of the leaves (listing 10^10 cells of the
+    # exactly counted span would hang the guard); the count is the plan's (test_size_estimate_is_the_exact_count)
+    for key in ("state3", "state4"):
+        with pytest.raises(TooLargeError, match=rf"recipe too large .*{key}: [0-9,]+\)"):
+            check_size(Recipe(families=(FamilyRange(key, 0, 40),)))
 
 
 def test_default_recipe_has_the_families():
-    # within the site's size budget: three leaves 1/2 <= j <= 1, LS-jj for l <= 3; recouple4 only on request
-    assert DEFAULT_RECIPE.family("recouple3") == FamilyRange("recouple3", 1, 2)
+    # the issue: three leaves j1, j2, j3 <= 2 (from 1/2: a leaf 0 only gives 1 x 1 matrices), LS-jj for l <= 3,
+    # small four-leaf matrices (leaves 1/2 and 1), three and four spins 1/2 written out in product states
+    assert DEFAULT_RECIPE.family("recouple3") == FamilyRange("recouple3", 1, 4)
+    assert DEFAULT_RECIPE.family("recouple4") == FamilyRange("recouple4", 1, 2)
     assert DEFAULT_RECIPE.family("lsjj") == FamilyRange("lsjj", 0, 6)
-    assert DEFAULT_RECIPE.family("recouple4") is None
+    assert DEFAULT_RECIPE.family("state3") == FamilyRange("state3", 1, 1)
+    assert DEFAULT_RECIPE.family("state4") == FamilyRange("state4", 1, 1)
 
 
 def test_a_built_site_verifies(tmp_path):
@@ -236,7 +246,7 @@ def test_kind_value_matches_engine_api():
 
 
 # -- four angular momenta: recouple4, each cell linked to its 9j ------------------------------------------
-RANGE4 = FamilyRange("recouple4", 1, 2)  # leaves 1/2 and 1 (the default recipe shows 1/2 only)
+RANGE4 = FamilyRange("recouple4", 1, 2)  # leaves 1/2 and 1, as in the default recipe
 
 
 @pytest.fixture(scope="module")
@@ -545,7 +555,7 @@ def test_coupled_and_product_kets_cannot_be_confused(built_states):
     assert "|(1/2 1)3/2, 1/2; 2, 2⟩" in page  # coupled: (j1 j2)j12, j3; J, M
     assert "|1/2, 1/2⟩|1, 1⟩|1/2, 1/2⟩" in page  # product: one |j, m⟩ per angular momentum
     tex = files[table.tex].decode("utf-8")
-    assert "\\vert (\\frac{1}{2}\\,1)\\frac{3}{2},\\,\\frac{1}{2};\\,2,\\,2\\rangle &=" in tex
+    assert "\\vert (1/2\\,1)3/2,\\,1/2;\\,2,\\,2\\rangle &=" in tex
     assert "Rows written out:" in tex and "Columns written out:" in tex
 
 
@@ -560,3 +570,118 @@ def test_states_sheet_compiles(built_states, tmp_path):
     proc = subprocess.run([pdflatex, "-interaction=nonstopmode", "-halt-on-error", "sheet.tex"], cwd=tmp_path,
                           capture_output=True, text=True, errors="replace", timeout=300)
     assert proc.returncode == 0, proc.stdout[-3000:]
+
+
+# -- coupled states of four angular momenta, tree ((j1 j2)j12, (j3 j4)j34)J ---------------------------------
+@pytest.fixture(scope="module")
+def built_states4():
+    plan = plan_site(Recipe(title="States of four", families=(FamilyRange("state4", 1, 2),)))  # leaves 1/2 and 1
+    book = compute_values(plan, jobs=1)
+    return plan, book, dict(render_outputs(plan, book)[1])
+
+
+def _state4_table(plan, leaves):
+    return next(t for t in plan.tables_of("state4") if tuple(v for _, v in t.params) == leaves)
+
+
+def test_state4_matrices_are_square_and_orthogonal(built_states4):
+    # orthogonality of the coupled states: common practice, no source
+    plan, book, _ = built_states4
+    blocks = cells = 0
+    for table in plan.tables_of("state4"):
+        for s in table.sections:
+            n = len(s.rows)
+            assert n == len(s.columns), s.anchor  # as many coupled states as product states for each M
+            m = [[book[("state4", e.key)].value for e in line] for line in s.grid]
+            for a, b in itertools.combinations_with_replacement(range(n), 2):
+                total = ExactSum()
+                for k in range(n):
+                    total += m[k][a] * m[k][b]
+                assert total == (1 if a == b else 0), (s.anchor, a, b)
+            blocks += 1
+            cells += n * n
+    # a block per M = -(j1+...+j4) .. j1+...+j4 for each of the 16 leaf sets; cells counted by hand-free enumeration
+    assert blocks == sum(sum(js) + 1 for js in itertools.product((1, 2), repeat=4)) and cells == 5413
+
+
+@pytest.mark.parametrize("leaves", [(1, 1, 1, 1), (1, 2, 2, 1), (2, 1, 1, 2)])
+def test_state4_coefficients_are_products_of_three_sympy_cg(built_states4, leaves):
+    # reference library: sympy.physics.quantum.cg.CG, exactly, along the tree ((j1 j2)j12, (j3 j4)j34)J
+    import sympy
+    from sympy.physics.quantum.cg import CG
+
+    plan, book, _ = built_states4
+    checked = 0
+    for s in _state4_table(plan, leaves).sections:
+        for line in s.grid:
+            for e in line:
+                j1, j2, j3, j4, j12, j34, J, M, m1, m2, m3, m4 = (sympy.Rational(x, 2) for x in e.key)
+                want = (CG(j1, m1, j2, m2, j12, m1 + m2).doit() * CG(j3, m3, j4, m4, j34, m3 + m4).doit()
+                        * CG(j12, m1 + m2, j34, m3 + m4, J, M).doit())
+                assert sympy.simplify(book[("state4", e.key)].value.to_sympy() - want) == 0, e.key
+                checked += 1
+    # every cell: for each M, (number of product states with that M) squared
+    by_m = Counter(sum(ms) for ms in itertools.product(*(range(-j, j + 1, 2) for j in leaves)))
+    assert checked == sum(n * n for n in by_m.values())
+
+
+def test_state4_expansions_agree_with_sympy_uncouple(built_states4):
+    # reference library: sympy.physics.quantum.spin.uncouple of a JzKetCoupled of four spins 1/2 with the
+    # coupling ((1,2,j12), (3,4,j34), (1,3,J)): the tree ((j1 j2)j12, (j3 j4)j34)J
+    import sympy
+    from sympy.physics.quantum import TensorProduct
+    from sympy.physics.quantum.spin import JzKetCoupled, uncouple
+    from tablegen.render.kets import expansions
+
+    plan, book, files = built_states4
+    layout = family("state4").layout
+    table = _state4_table(plan, (1, 1, 1, 1))
+    half = sympy.Rational(1, 2)
+    compared = 0
+    for s in table.sections:
+        by_row, by_column = expansions(layout, s, lambda e: book[("state4", e.key)])
+        M = sympy.Rational(dict(s.params)["M"], 2)
+        ket_of = {layout.column_ket(s.params, c)[0]: c for c in s.columns}
+        for r, (t12, t34, tJ) in enumerate(s.rows):
+            j12, j34, J = (sympy.Rational(t, 2) for t in (t12, t34, tJ))
+            ket = uncouple(JzKetCoupled(J, M, (half,) * 4, ((1, 2, j12), (3, 4, j34), (1, 3, J))))
+            want = {}
+            for term in sympy.Add.make_args(sympy.expand(ket)):
+                coeff, product = term.as_independent(TensorProduct)
+                want[tuple(int(2 * k.m) for k in product.args)] = coeff
+            got = {ket_of[t.ket_text]: (-1 if t.negative else 1) * abs(t.value.value.to_sympy()) for t in by_row[r].terms}
+            assert set(got) == {k for k, v in want.items() if v != 0}, (s.anchor, r)
+            for k, v in got.items():
+                assert sympy.simplify(v - want[k]) == 0, (s.anchor, r, k)
+                compared += 1
+        for c, x in enumerate(by_column):  # the inverse expansion: product states in coupled states
+            assert [t.value for t in x.terms] == [book[("state4", line[c].key)] for line in s.grid
+                                                  if book[("state4", line[c].key)].value]
+    assert compared > 20
+    page = files[table.page].decode("utf-8")
+    assert "<h3>Rows written out</h3>" in page and "<h3>Columns written out</h3>" in page
+
+
+def test_state4_kets_name_the_tree_and_cannot_be_confused(built_states4):
+    plan, _, files = built_states4
+    table = _state4_table(plan, (1, 2, 2, 1))
+    page = files[table.page].decode("utf-8")
+    assert "|(1/2 1)3/2, (1 1/2)1/2; 1, 1⟩" in page  # coupled: (j1 j2)j12, (j3 j4)j34; J, M
+    assert "|1/2, 1/2⟩|1, 1⟩|1, −1⟩|1/2, −1/2⟩" in page  # product: one |j, m⟩ per angular momentum
+    assert "((j1 j2)j12, (j3 j4)j34)J" in page  # the tree is stated on the page
+    tex = files[table.tex].decode("utf-8")
+    assert "\\vert (1/2\\,1)3/2,\\,(1\\,1/2)1/2;\\,1,\\,1\\rangle" in tex
+    assert "Rows written out:" in tex and "Columns written out:" in tex
+
+
+def test_state4_one_value_and_zero_rules():
+    from tablegen.kinds import kind
+
+    k = kind("state4")
+    # |(1/2 1/2)0, (1/2 1/2)0; 0 0> = (|+-> - |-+>)(|+-> - |-+>)/2: the coefficient of |+-+->
+    assert k.value("1/2", "1/2", "1/2", "1/2", 0, 0, 0, 0, "1/2", "-1/2", "1/2", "-1/2") == Surd(1, 1, 4)
+    assert k.value("1/2", "1/2", "1/2", "1/2", 0, 0, 0, 0, "-1/2", "1/2", "1/2", "-1/2") == Surd(-1, 1, 4)
+    t = k.parse(("1/2", "1/2", "1/2", "1/2", 1, 0, 1, 1, "1/2", "-1/2", "1/2", "1/2"))
+    assert k.zero_rule(t).id == "m-range" and "m3 + m4" in k.zero_rule(t).text  # |m3 + m4| = 1 > j34 = 0
+    t = k.parse(("1/2", "1/2", "1/2", "1/2", 1, 0, 2, 0, "1/2", "-1/2", "1/2", "-1/2"))
+    assert k.zero_rule(t).id == "triangle"

@@ -377,17 +377,46 @@
     return null;
   }
 
+  // A form the pages file under another (fam.exchange: when one argument exceeds another, the pairs
+  // exchanged, times (-1)^(constant + half the sum of the phase arguments)): the filed form and its sign.
+  function exchanged(fam, named) {
+    var ex = fam.exchange;
+    if (!ex || named[ex.when[0]] <= named[ex.when[1]]) return null;
+    var s = 2 * ex.constant, out = {};
+    ex.phase.forEach(function (name) { s += named[name]; });
+    Object.keys(named).forEach(function (name) { out[name] = named[name]; });
+    ex.pairs.forEach(function (p) { out[p[0]] = named[p[1]]; out[p[1]] = named[p[0]]; });
+    return { named: out, sign: (s / 2) % 2 === 0 ? 1 : -1 };
+  }
+
   // grid and matrix layouts: page and anchor follow from the arguments by name.
   function patternTarget(fam, k, t) {
-    var named = {};
+    var named = {}, text = "", sign = 1;
     k.names.forEach(function (name, i) { named[name] = t[i]; });
     var params = fam.params.map(function (name) { return named[name]; });
     if (!inRange(fam, params)) {
       return result("bad", fam.params.join(" and ") + " must be in this build's range " + rangeText(fam) + ".");
     }
+    var typed = named, other = exchanged(fam, named);
+    if (other) {
+      named = other.named;
+      sign = other.sign;
+      var filed = k.names.map(function (name) { return named[name]; });
+      var swaps = fam.exchange.pairs.map(function (p) { return p[0] + " \u2194 " + p[1]; }).join(", ");
+      text = "Filed as " + writeSymbol(k, filed) + " (" + swaps + "; highlighted)" +
+        (sign < 0 ? ", which is \u22121 \u00d7 the symbol above." : ", which is equal to it.");
+    }
     var page = fam.page;  // a pair too large for one page has a page per third j
     if (fam.split && fam.split.indexOf(named.j1 + "," + named.j2) >= 0) page = fam.splitPage;
-    return result("ok", "", fill(page, named, fileCode), fill(fam.anchor, named, half));
+    var path = fill(page, named, fileCode);
+    if (fam.paths && fam.paths.indexOf(path) < 0) {
+      var which = page.match(/\{\w+\}/g).map(function (b) {  // the names the page is named by
+        var name = b.slice(1, -1);
+        return name + " = " + nice(typed[name]);
+      }).join(", ");
+      return result("bad", "This build has no " + fam.title + " page for " + which + ".");
+    }
+    return result("ok", text, path, fill(fam.anchor, named, half), sign);
   }
 
   // classes layout: a form of the symbol with every j in range (any symmetry of

@@ -19,8 +19,8 @@ from __future__ import annotations
 
 from .classes import ClassesLayout, symbols_in_range
 from .grid import GridLayout
-from .matrix import MatrixBlock, MatrixLayout
+from .matrix import Exchange, MatrixBlock, MatrixLayout
 
 Layout = GridLayout | ClassesLayout | MatrixLayout
 
-__all__ = ["GridLayout", "ClassesLayout", "MatrixLayout", "MatrixBlock", "Layout", "symbols_in_range"]
+__all__ = ["GridLayout", "ClassesLayout", "MatrixLayout", "MatrixBlock", "Exchange", "Layout", "symbols_in_range"]

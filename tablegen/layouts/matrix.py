@@ -22,7 +22,32 @@ if TYPE_CHECKING:  # pragma: no cover
     from ..families import Family
     from ..recipe import FamilyRange
 
-__all__ = ["MatrixLayout", "MatrixBlock"]
+__all__ = ["MatrixLayout", "MatrixBlock", "Exchange"]
+
+
+@dataclass(frozen=True, slots=True)
+class Exchange:
+    """Values the site files under another form: the two particles of an LS-jj coefficient in the other order.
+
+    When argument ``when[0]`` exceeds ``when[1]``, the value equals the one with the arguments of each pair
+    in ``pairs`` exchanged, times (-1)^(constant + the sum of the arguments named in ``phase``), and only that
+    form has a page.  The jump box reads this record (render/jumpdata.py) to land on the filed form.
+    """
+
+    when: tuple[str, str]
+    pairs: tuple[tuple[str, str], ...]
+    phase: tuple[str, ...]
+    constant: int = 0
+
+    def filed(self, names: tuple[str, ...], key: tuple[int, ...]) -> "tuple[tuple[int, ...], int] | None":
+        """(the filed key, sign) of doubled ``key`` if it is filed under another form, else None."""
+        at = dict(zip(names, key))
+        if at[self.when[0]] <= at[self.when[1]]:
+            return None
+        power = self.constant + sum(at[n] for n in self.phase) // 2
+        for a, b in self.pairs:
+            at[a], at[b] = at[b], at[a]
+        return tuple(at[n] for n in names), -1 if power % 2 else 1
 
 
 @dataclass(frozen=True, slots=True)
@@ -60,6 +85,7 @@ class MatrixLayout:
     # page writes each row out in the column states and each column in the row states (a real orthogonal matrix)
     row_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
     column_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
+    exchange: "Exchange | None" = None  # values filed under another form (l1 > l2 of LS-jj under l1 < l2)
 
     name = "matrix"
 

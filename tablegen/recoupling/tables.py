@@ -15,7 +15,7 @@ from ..triads import is_triad
 
 __all__ = ["recouple3_blocks", "recouple3_count", "recouple4_blocks", "recouple4_count",
            "lsjj_blocks", "lsjj_count", "configuration",
-           "states3_blocks", "states3_count", "coupled_ket3", "product_ket3"]
+           "states_blocks", "states_count", "coupled_ket", "product_ket"]
 
 
 def _between(ta: int, tb: int) -> range:
@@ -70,8 +70,34 @@ def recouple4_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
 
 
 def recouple4_count(lo: int, hi: int) -> int:
-    """Exact number of cells of recouple4_blocks(lo, hi)."""
-    return sum(len(rows) * len(cols) for *_, rows, cols in _recouple4_shapes(lo, hi))
+    """Exact number of cells of recouple4_blocks(lo, hi), without listing them (the size guard asks first).
+
+    A block's rows are the pairs (j12, j34) coupling to J and its columns the pairs (j13, j24): the cells
+    are the sum over J of the two pair counts multiplied, and a pair count depends only on the two pairs
+    of leaves, whatever their order."""
+    cache: dict = {}
+
+    def pairs(a: int, b: int, c: int, d: int) -> dict[int, int]:
+        """{2J: number of (x, y), x from a and b, y from c and d, coupling to J}."""
+        key = tuple(sorted((tuple(sorted((a, b))), tuple(sorted((c, d))))))
+        if key not in cache:
+            out: dict[int, int] = {}
+            for x in _between(a, b):
+                for y in _between(c, d):
+                    for tJ in _between(x, y):
+                        out[tJ] = out.get(tJ, 0) + 1
+            cache[key] = out
+        return cache[key]
+
+    js = range(lo, hi + 1)
+    total = 0
+    for j1 in js:
+        for j2 in js:
+            for j3 in js:
+                for j4 in js:
+                    rows, cols = pairs(j1, j2, j3, j4), pairs(j1, j3, j2, j4)
+                    total += sum(n * cols.get(tJ, 0) for tJ, n in rows.items())
+    return total
 
 
 # -- two-particle LS <-> jj: a page per configuration (shells, l1, l2), a block per J -----------------------
@@ -117,62 +143,118 @@ def configuration(params: tuple[tuple[str, int], ...]) -> str:
     return f"{a}{b}′" if l1 == l2 else f"{a}{b}"
 
 
-# -- coupled states of three angular momenta in product states, tree ((j1 j2)j12 j3)J ----------------------
-def _states3_shapes(lo: int, hi: int):
-    js = range(lo, hi + 1)
-    for j1 in js:
-        for j2 in js:
-            for j3 in js:
-                top = j1 + j2 + j3
-                for tM in range(top, -top - 1, -2):
-                    rows = tuple((t12, tJ) for t12 in _between(j1, j2) for tJ in _between(t12, j3) if tJ >= abs(tM))
-                    cols = tuple((m1, m2, tM - m1 - m2) for m1 in range(j1, -j1 - 1, -2) for m2 in range(j2, -j2 - 1, -2)
-                                 if abs(tM - m1 - m2) <= j3)
-                    yield j1, j2, j3, tM, rows, cols
+# -- coupled states in product states, one tree per family (kinds/states.py: TREE3, TREE4) --------------------
+def _inner_values(tree, js: tuple[int, ...]) -> Iterator[tuple[int, ...]]:
+    """Every allowed (intermediates..., J) of ``tree`` over doubled leaves ``js``, in order."""
+
+    def walk(at: int, values: list[int]):
+        if at == len(tree.nodes):
+            yield tuple(values[tree.leaves:])
+            return
+        left, right, _ = tree.nodes[at]
+        for t in _between(values[left], values[right]):
+            yield from walk(at + 1, values + [t])
+
+    yield from walk(0, list(js))
 
 
-def states3_blocks(lo: int, hi: int) -> Iterator[MatrixBlock]:
-    """A block per (j1, j2, j3, M), leaves in [lo, hi] (doubled): rows the coupled states (j12, J), columns
-    the product states (m1, m2, m3) with m1 + m2 + m3 = M."""
-    for j1, j2, j3, tM, rows, cols in _states3_shapes(lo, hi):
-        yield MatrixBlock((("j1", j1), ("j2", j2), ("j3", j3), ("M", tM)), rows, cols,
-                          lambda r, c, a=(j1, j2, j3), tM=tM: a + r + (tM,) + c)
+def _products(js: tuple[int, ...], tM: int) -> Iterator[tuple[int, ...]]:
+    """Every (m1, ..., mn) with |mi| <= ji summing to M, from the largest m1 down."""
+    if len(js) == 1:
+        if abs(tM) <= js[0] and (js[0] - tM) % 2 == 0:
+            yield (tM,)
+        return
+    for m in range(js[0], -js[0] - 1, -2):
+        for rest in _products(js[1:], tM - m):
+            yield (m,) + rest
 
 
-def states3_count(lo: int, hi: int) -> int:
-    """Exact number of cells of states3_blocks(lo, hi)."""
-    return sum(len(r) * len(c) for *_, r, c in _states3_shapes(lo, hi))
+def _states_shapes(tree, lo: int, hi: int):
+    js_range = range(lo, hi + 1)
+
+    def leaves(n):
+        return [()] if n == 0 else [(j,) + rest for j in js_range for rest in leaves(n - 1)]
+
+    for js in leaves(tree.leaves):
+        inner = tuple(_inner_values(tree, js))
+        top = sum(js)
+        for tM in range(top, -top - 1, -2):
+            rows = tuple(r for r in inner if r[-1] >= abs(tM))
+            yield js, tM, rows, tuple(_products(js, tM))
+
+
+def states_blocks(tree, lo: int, hi: int) -> Iterator[MatrixBlock]:
+    """A block per (j1, ..., jn, M), leaves in [lo, hi] (doubled): rows the coupled states (intermediates, J),
+    columns the product states (m1, ..., mn) with m1 + ... + mn = M."""
+    names = tuple(f"j{i + 1}" for i in range(tree.leaves)) + ("M",)
+    for js, tM, rows, cols in _states_shapes(tree, lo, hi):
+        yield MatrixBlock(tuple(zip(names, js + (tM,))), rows, cols, lambda r, c, a=js, tM=tM: a + r + (tM,) + c)
+
+
+def states_count(tree, lo: int, hi: int) -> int:
+    """Exact number of cells of states_blocks(tree, lo, hi), without listing them (the size guard asks first).
+
+    Each block is square: for leaves js and projection M there are as many coupled states as product states
+    with m1 + ... + mn = M, n_M; so the cells are the sum over leaf sets of the sum over M of n_M squared,
+    and n_M, which depends only on the multiset of leaves, comes from multiplying the leaves' m-polynomials.
+    """
+    from collections import Counter
+    from itertools import combinations_with_replacement
+    from math import factorial
+
+    total = 0
+    for js in combinations_with_replacement(range(lo, hi + 1), tree.leaves):
+        counts = {0: 1}
+        for j in js:
+            step: dict[int, int] = {}
+            for m, n in counts.items():
+                for tm in range(-j, j + 1, 2):
+                    step[m + tm] = step.get(m + tm, 0) + n
+            counts = step
+        orders = factorial(tree.leaves)  # the leaf sets with this multiset of leaves
+        for n in Counter(js).values():
+            orders //= factorial(n)
+        total += orders * sum(n * n for n in counts.values())
+    return total
 
 
 def _tex(t: int) -> str:
+    """A quantum number inside a ket, in LaTeX: 1/2 slashed (kets of many spins stay one line high and short)."""
     from ..spins import half_text
 
-    text = half_text(t)
-    if "/" not in text:
-        return text
-    sign, body = ("-", text[1:]) if text.startswith("-") else ("", text)
-    n, d = body.split("/")
-    return f"{sign}\\frac{{{n}}}{{{d}}}"
+    return half_text(t)
 
 
-def coupled_ket3(params: tuple[tuple[str, int], ...], row: tuple[int, int]) -> tuple[str, str]:
-    """(text, LaTeX) of the coupled ket |(j1 j2)j12, j3; J, M>."""
+def coupled_ket(tree, params: tuple[tuple[str, int], ...], row: tuple[int, ...]) -> tuple[str, str]:
+    """(text, LaTeX) of the coupled ket of ``tree``: |(j1 j2)j12, j3; J, M>, |(j1 j2)j12, (j3 j4)j34; J, M>.
+
+    Inside a part the two coupled values are separated by a space, the root's two parts by a comma, and the
+    total J and M follow a semicolon, so a coupled ket never reads as a product of |j, m> kets."""
     from ..spins import half_text as h
 
     p = dict(params)
-    t12, tJ = row
-    text = f"|({h(p['j1'])} {h(p['j2'])}){h(t12)}, {h(p['j3'])}; {h(tJ)}, {h(p['M'])}⟩"
-    tex = (f"\\vert ({_tex(p['j1'])}\\,{_tex(p['j2'])}){_tex(t12)},\\,{_tex(p['j3'])};\\,"
-           f"{_tex(tJ)},\\,{_tex(p['M'])}\\rangle")
+    js = [p[f"j{i + 1}"] for i in range(tree.leaves)] + list(row)
+
+    def part(at: int, form):
+        if at < tree.leaves:
+            return form(js[at])
+        left, right, _ = next(n for n in tree.nodes if n[2] == at)
+        sep = " " if form is h else "\\,"
+        return f"({part(left, form)}{sep}{part(right, form)}){form(js[at])}"
+
+    left, right, root = tree.nodes[-1]
+    text = f"|{part(left, h)}, {part(right, h)}; {h(js[root])}, {h(p['M'])}⟩"
+    tex = (f"\\vert {part(left, _tex)},\\,{part(right, _tex)};\\,"
+           f"{_tex(js[root])},\\,{_tex(p['M'])}\\rangle")
     return text, tex
 
 
-def product_ket3(params: tuple[tuple[str, int], ...], column: tuple[int, int, int]) -> tuple[str, str]:
-    """(text, LaTeX) of the product ket |j1, m1>|j2, m2>|j3, m3>."""
+def product_ket(tree, params: tuple[tuple[str, int], ...], column: tuple[int, ...]) -> tuple[str, str]:
+    """(text, LaTeX) of the product ket |j1, m1>|j2, m2>...|jn, mn>."""
     from ..spins import half_text as h
 
     p = dict(params)
-    pairs = tuple(zip((p["j1"], p["j2"], p["j3"]), column))
+    pairs = tuple(zip((p[f"j{i + 1}"] for i in range(tree.leaves)), column))
     text = "".join(f"|{h(j)}, {h(m)}⟩" for j, m in pairs)
     tex = "".join(f"\\vert {_tex(j)},\\,{_tex(m)}\\rangle" for j, m in pairs)
     return text, tex

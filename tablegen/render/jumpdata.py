@@ -80,6 +80,12 @@ def _family(fam: Family, plan: SitePlan) -> dict:
     else:
         out["anchor"] = layout.anchor_pattern()
         out["params"] = list(layout.params)
+        if getattr(layout, "page_params", 1) > 1:  # pages named by several parameters: not every name is a page
+            out["paths"] = sorted(t.page for t in plan.tables_of(fam.key))
+        exchange = getattr(layout, "exchange", None)
+        if exchange is not None:  # a form filed under another (LS-jj: l1 > l2 under l1 < l2)
+            out["exchange"] = {"when": list(exchange.when), "pairs": [list(p) for p in exchange.pairs],
+                               "phase": list(exchange.phase), "constant": exchange.constant}
     if hasattr(layout, "split"):  # grid: pairs too large for one page have a page per third j
         pairs = sorted({(t.param("j1"), t.param("j2")) for t in plan.tables_of(fam.key)})
         split = [f"{a},{b}" for a, b in pairs if layout.split(a, b)]
