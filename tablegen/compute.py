@@ -78,11 +78,13 @@ def wanted_keys(plan: SitePlan) -> list[tuple[str, tuple[int, ...]]]:
     """Every (kind, key) the site shows, in plan order, without repeats."""
     out: dict[tuple[str, tuple[int, ...]], None] = {}
     for table in plan.tables:
-        companions = plan.family(table.family).companions
+        fam = plan.family(table.family)
         for entry in table.entries:
             out[(table.kind, entry.key)] = None
-            for c in companions:
+            for c in fam.companions:
                 out[(c.kind, c.mapping(entry.key)[0])] = None
+            for a in fam.alongside:  # another kind at the same arguments (d^j at a fixed angle)
+                out[(a.kind, entry.key)] = None
     return list(out)
 
 

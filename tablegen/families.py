@@ -19,10 +19,10 @@ from typing import Callable
 
 from .kinds import Kind, kind
 from .kinds.sixj import w_of_sixj
-from .layouts import ClassesLayout, Exchange, GridLayout, Layout, MatrixLayout
+from .layouts import ClassesLayout, Exchange, GridLayout, Layout, MatrixBlock, MatrixLayout
 from .symmetry import ninej_members, sixj_tetrahedral_members
 
-__all__ = ["Companion", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
+__all__ = ["Companion", "Alongside", "Family", "FAMILIES", "FAMILY_KEYS", "family", "named_symbol", "GridLayout",
            "ClassesLayout", "MatrixLayout"]
 
 #: Columns of every data row after the arguments: the exact text, then the value
@@ -42,6 +42,16 @@ class Companion:
     mapping: Callable[[tuple[int, ...]], tuple[tuple[int, ...], int]] = field(repr=False)  # no addresses in reprs
 
 
+@dataclass(frozen=True, slots=True)
+class Alongside:
+    """Another kind tabulated at the same arguments as the family's own, shown in full (exact, sign, p, q,
+    decimal) in a matrix of its own under each of the family's: d^j(beta) at beta = pi/2 under d^j(beta)."""
+
+    kind: str
+    label: str  # what distinguishes it, as the page prints it: "β = π/2"
+    tex_label: str  # the same in LaTeX: "\\beta = \\pi/2"
+
+
 @dataclass(frozen=True)
 class Family:
     """One recipe section and everything the site needs to show it."""
@@ -53,6 +63,10 @@ class Family:
     layout: Layout
     convention: str
     companions: tuple[Companion, ...] = ()
+    alongside: tuple[Alongside, ...] = ()
+    range_name: str = "j"  # the recipe's range keys: max_<range_name>, min_<range_name>
+    range_step: int = 1  # doubled step of the range: 1 allows half-integers, 2 whole numbers only
+    convention_text: str = ""  # a section of the conventions page and sheets (templates/text/<name>.md), if any
 
     @cached_property
     def kind_record(self) -> Kind:
@@ -61,7 +75,7 @@ class Family:
     @property
     def kinds(self) -> tuple[str, ...]:
         """Every kind of value the family's pages show (the main one first)."""
-        return (self.kind,) + tuple(c.kind for c in self.companions)
+        return (self.kind,) + tuple(c.kind for c in self.companions) + tuple(a.kind for a in self.alongside)
 
     @property
     def data_columns(self) -> tuple[str, ...]:
@@ -69,6 +83,8 @@ class Family:
         extra = ("forms",) if self.layout.name == "classes" else ()
         for c in self.companions:
             extra += (c.kind, f"{c.kind}_sign")
+        for a in self.alongside:  # the kind's own value columns, prefixed: d(pi/2), d(pi/2)_sign, ...
+            extra += tuple(a.kind if column == "exact" else f"{a.kind}_{column}" for column in VALUE_COLUMNS)
         return self.kind_record.arguments + VALUE_COLUMNS + extra
 
     @property
@@ -180,6 +196,87 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
 )
 # -- end of the recoupling families ---------------------------------------------------------------------------
 
+# -- rotation functions and spherical harmonics (issue 9) -----------------------------------------------------
+def _rotation_blocks(lo: int, hi: int):
+    """One matrix per j in [lo, hi] (halves): rows m' and columns m from j down to -j."""
+    for tj in range(lo, hi + 1):
+        ms = tuple(range(tj, -tj - 1, -2))
+        yield MatrixBlock((("j", tj),), ms, ms, partial(_d_key, tj))
+
+
+def _d_key(tj: int, tmp: int, tm: int) -> tuple[int, ...]:
+    return (tj, tmp, tm)
+
+
+def _rotation_count(lo: int, hi: int) -> int:
+    """Cells of the d^j matrices for 2j in [lo, hi]: (2j+1)^2 each, summed in closed form (sum of squares)."""
+    squares = lambda n: n * (n + 1) * (2 * n + 1) // 6  # noqa: E731  1^2 + ... + n^2
+    return squares(hi + 1) - squares(lo) if hi >= lo else 0
+
+
+def _whole(lo: int, hi: int) -> range:
+    """The doubled whole numbers l in [lo, hi]."""
+    return range(lo + lo % 2, hi + 1, 2)
+
+
+def _harmonics_blocks(lo: int, hi: int):
+    """One matrix on one page: rows m from l_max down to -l_max, columns l (whole numbers in [lo, hi])."""
+    ls = tuple(_whole(lo, hi))
+    top = ls[-1] if ls else 0
+    yield MatrixBlock((), tuple(range(top, -top - 1, -2)), ls, _y_key)
+
+
+def _y_key(tm: int, tl: int) -> "tuple[int, ...] | None":
+    return (tl, tm) if abs(tm) <= tl else None
+
+
+def _harmonics_count(lo: int, hi: int) -> int:
+    """Cells of the harmonics matrix: 2l+1 for each whole l in [lo, hi], in closed form ((l+1)^2 up to l)."""
+    below = (lo + lo % 2) // 2  # the smallest whole l in range
+    top = hi // 2
+    return (top + 1) ** 2 - below**2 if top >= below else 0
+
+
+_ROTATION_CONVENTION = (
+    "Active rotation, Condon–Shortley phase: d^j_{m′m}(β) = ⟨j m′| exp(−iβJ_y) |j m⟩, row m′ (bra), column m (ket); "
+    "D^j_{m′m}(α, β, γ) = e^{−im′α} d^j_{m′m}(β) e^{−imγ}. Passive rotation: D^j_{m′m}(−γ, −β, −α) = "
+    "conj(D^j_{mm′}(α, β, γ)); conjugate tables: conj(D^j_{m′m}) = (−1)^{m′−m} D^j_{−m′,−m}; "
+    "e^{+iβJ_y} instead: d^j_{m′m}(−β) = d^j_{mm′}(β)."
+)
+_HARMONICS_CONVENTION = (
+    "Condon–Shortley phase, with the (−1)^m in Y: Y_l^m(θ, φ) = (−1)^m √((2l+1)/(4π)·(l−m)!/(l+m)!) "
+    "P_l^m(cos θ) e^{imφ} for m ≥ 0 with P_l^m(x) = (1−x²)^{m/2} d^m P_l/dx^m (no (−1)^m in P), "
+    "Y_l^{−m} = (−1)^m conj(Y_l^m); Y_l^m(θ, φ) = √((2l+1)/(4π)) conj(D^l_{m0}(φ, θ, 0))."
+)
+
+FUNCTION_FAMILIES: tuple[Family, ...] = (
+    Family(
+        key="rotation",
+        kind="d",
+        title="Wigner rotation functions",
+        nav_label="d(β)",
+        layout=MatrixLayout(block=("j",), row="mp", column="m", blocks=_rotation_blocks, count=_rotation_count,
+                            count_closed=True, count_noun="functions", tex_list=True),
+        convention=_ROTATION_CONVENTION,
+        alongside=(Alongside("d(pi/2)", "β = π/2", "\\beta = \\pi/2"),
+                   Alongside("d(pi/3)", "β = π/3", "\\beta = \\pi/3")),
+        convention_text="rotations",
+    ),
+    Family(
+        key="harmonics",
+        kind="Y",
+        title="Spherical harmonics",
+        nav_label="Y(θ, φ)",
+        layout=MatrixLayout(block=(), row="m", column="l", blocks=_harmonics_blocks, count=_harmonics_count,
+                            count_closed=True, count_noun="functions", tex_list=True, ranged=("l",)),
+        convention=_HARMONICS_CONVENTION,
+        range_name="l",
+        range_step=2,
+        convention_text="rotations",
+    ),
+)
+# -- end of rotation functions and spherical harmonics -------------------------------------------------------
+
 FAMILIES: tuple[Family, ...] = (
     Family(
         key="cg",
@@ -225,7 +322,7 @@ FAMILIES: tuple[Family, ...] = (
         "Rows in the order written, {j1 j2 j12; j3 j4 j34; j13 j24 J}. An odd permutation of rows or "
         "columns multiplies it by (−1)^(sum of all nine j); transposing leaves it unchanged.",
     ),
-) + RECOUPLING_FAMILIES
+) + RECOUPLING_FAMILIES + FUNCTION_FAMILIES
 
 FAMILY_KEYS = tuple(f.key for f in FAMILIES)
 _BY_KEY = {f.key: f for f in FAMILIES}

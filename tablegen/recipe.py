@@ -32,6 +32,10 @@ Recipe file (TOML)::
     max_j = "1/2"
     [state4]                    # coupled states ((j1 j2)j12, (j3 j4)j34)J in product states and back
     max_j = "1/2"
+    [rotation]                  # d^j_{m'm}(beta), one page per j in [min_j, max_j], steps of 1/2
+    max_j = 3
+    [harmonics]                 # Y_l^m(theta, phi) for whole l in [min_l, max_l], on one page
+    max_l = 4
 
 The ranges are inclusive; half-integers are written "7/2" or 3.5 (ASCII digits,
 at most 40 characters, no j above limits.ENGINE_MAX_J).  The file is UTF-8,
@@ -70,7 +74,9 @@ FAMILY_NAMES = {f.key: f.title for f in _FAMILY_RECORDS}
 MAX_TITLE = 200
 MAX_NOTES = 4000
 _TOP_KEYS = ("title", "notes", "digits", "latex_style", "decimals") + FAMILIES
-_FAMILY_KEYS = ("max_j", "min_j")
+#: The letter of each family's range keys (max_j, min_j; the harmonics: max_l, min_l) and its doubled step.
+_RANGE_NAMES = {f.key: f.range_name for f in _FAMILY_RECORDS}
+_RANGE_STEPS = {f.key: f.range_step for f in _FAMILY_RECORDS}
 
 
 @dataclass(frozen=True)
@@ -83,7 +89,8 @@ class FamilyRange:
 
     def describe(self) -> str:
         lo, hi = half_text(self.min_tj), half_text(self.max_tj)
-        return f"j ≤ {hi}" if self.min_tj == 0 else f"{lo} ≤ j ≤ {hi}"
+        j = _RANGE_NAMES.get(self.family, "j")
+        return f"{j} ≤ {hi}" if self.min_tj == 0 else f"{lo} ≤ {j} ≤ {hi}"
 
 
 @dataclass(frozen=True)
@@ -113,9 +120,10 @@ class Recipe:
             "decimals": self.decimals,
         }
         for f in self.families:
-            entry = {"max_j": half_text(f.max_tj)}
+            j = _RANGE_NAMES.get(f.family, "j")
+            entry = {f"max_{j}": half_text(f.max_tj)}
             if f.min_tj:
-                entry["min_j"] = half_text(f.min_tj)
+                entry[f"min_{j}"] = half_text(f.min_tj)
             out[f.family] = entry
         return out
 
@@ -129,9 +137,10 @@ class Recipe:
             f"decimals = {'true' if self.decimals else 'false'}",
         ]
         for f in self.families:
-            lines += ["", f"[{f.family}]", f'max_j = "{half_text(f.max_tj)}"']
+            j = _RANGE_NAMES.get(f.family, "j")
+            lines += ["", f"[{f.family}]", f'max_{j} = "{half_text(f.max_tj)}"']
             if f.min_tj:
-                lines.append(f'min_j = "{half_text(f.min_tj)}"')
+                lines.append(f'min_{j} = "{half_text(f.min_tj)}"')
         return "\n".join(lines) + "\n"
 
 
@@ -159,6 +168,8 @@ DEFAULT_RECIPE = Recipe(
         FamilyRange("lsjj", 0, 6),
         FamilyRange("state3", 1, 1),  # three spins 1/2
         FamilyRange("state4", 1, 1),  # four spins 1/2
+        FamilyRange("rotation", 0, 6),
+        FamilyRange("harmonics", 0, 8),
     ),
 )
 
@@ -274,19 +285,24 @@ def recipe_from_mapping(data: dict, base: Recipe | None = None, names: dict | No
         if table is False or table is None:  # command line: drop a family
             ranges.pop(name, None)
             continue
+        j = _RANGE_NAMES[name]
+        top, bottom = f"max_{j}", f"min_{j}"
         if not isinstance(table, dict):
-            raise RecipeError(name, table, "must be a table with max_j (and optionally min_j)")
+            raise RecipeError(name, table, f"must be a table with {top} (and optionally {bottom})")
         for key in table:
-            if key not in _FAMILY_KEYS:
-                raise RecipeError(f"{name}.{key}", table[key], "unknown key (known: max_j, min_j)")
-        if "max_j" not in table:
-            raise RecipeError(f"{name}.max_j", "(missing)", "is required")
-        hi = _j_value(f"{name}.max_j", table["max_j"])
-        lo = _j_value(f"{name}.min_j", table.get("min_j", 0))
+            if key not in (top, bottom):
+                raise RecipeError(f"{name}.{key}", table[key], f"unknown key (known: {top}, {bottom})")
+        if top not in table:
+            raise RecipeError(f"{name}.{top}", "(missing)", "is required")
+        hi = _j_value(f"{name}.{top}", table[top])
+        lo = _j_value(f"{name}.{bottom}", table.get(bottom, 0))
         if lo > hi:
             raise RecipeError(
-                f"{name}.min_j", table.get("min_j"), f"must not exceed max_j = {half_text(hi)} (reversed range)"
+                f"{name}.{bottom}", table.get(bottom), f"must not exceed {top} = {half_text(hi)} (reversed range)"
             )
+        for key, t in ((top, hi), (bottom, lo)):
+            if t % _RANGE_STEPS[name]:
+                raise RecipeError(f"{name}.{key}", table[key], f"{j} must be a whole number for this family")
         ranges[name] = FamilyRange(name, lo, hi)
     families = tuple(ranges[n] for n in FAMILIES if n in ranges)
     return Recipe(title=title, notes=notes, digits=digits, latex_style=style, families=families, decimals=decimals)
@@ -306,6 +322,8 @@ def _range_option(option: str, text: str) -> FamilyRange | None:
         raise RecipeError(option, text, exc.rule) from None
     if bottom > top:
         raise RecipeError(option, text, f"MIN must not exceed MAX = {half_text(top)} (reversed range)")
+    if top % _RANGE_STEPS[name] or bottom % _RANGE_STEPS[name]:
+        raise RecipeError(option, text, f"{_RANGE_NAMES[name]} must be a whole number for this family")
     return FamilyRange(name, bottom, top)
 
 

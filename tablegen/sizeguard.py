@@ -139,7 +139,7 @@ def _layout_count(f) -> int | None:
     if count is None:
         return None
     n = f.max_tj - f.min_tj + 1
-    if n <= _COUNT_SPAN:
+    if n <= _COUNT_SPAN or family(f.family).layout.count_closed:
         return count(f.min_tj, f.max_tj)
     return int(count(f.min_tj, f.min_tj + _COUNT_SPAN - 1) * (n / _COUNT_SPAN) ** 6)
 # -- end of the layout counts ----------------------------------------------------------------------------------

@@ -367,9 +367,11 @@ def _value_named(path: str, want_text: str, line: "str | list | None") -> str:
     if not line:
         return ""
     try:
-        from .coefficients import ARGUMENT_NAMES, parse_arguments
+        from .families import FAMILY_KEYS, family as family_record
+        from .kinds import ALL_KINDS, kind
         from .notation import symbol_text
 
+        ARGUMENT_NAMES = {k.key: k.arguments for k in ALL_KINDS}  # numbers and tabulated functions
         if path == "values.txt":
             parts = line.split(" ")
             family, args = parts[0], parts[1 : 1 + len(ARGUMENT_NAMES[parts[0]])]
@@ -379,10 +381,11 @@ def _value_named(path: str, want_text: str, line: "str | list | None") -> str:
             args = line.split(",")[: len(ARGUMENT_NAMES[family])]
         elif path.endswith(".json") and isinstance(line, list):
             family = json.loads(want_text)["family"]
+            family = family_record(family).kind if family in FAMILY_KEYS else family  # the kind its table holds
             args = line[: len(ARGUMENT_NAMES[family])]
         else:
             return ""
-        return f", value {symbol_text(family, parse_arguments(family, args, max_j=10**6))}"
+        return f", value {symbol_text(family, kind(family).parse(tuple(args), 10**6))}"
     except (StopIteration, KeyError, IndexError, ValueError, TypeError, AttributeError, TablegenError):
         return ""
 

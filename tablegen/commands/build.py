@@ -34,7 +34,8 @@ def add_arguments(parser) -> None:
     parser.add_argument("--recipe", metavar="FILE", help="TOML recipe file")
     parser.add_argument("--out", metavar="DIR", default="site", help="output folder (default: ./site)")
     for f in FAMILIES:
-        parser.add_argument(f"--{f.key}", metavar="RANGE", dest=f"range_{f.key}", help=f"range of j for {f.title}")
+        parser.add_argument(f"--{f.key}", metavar="RANGE", dest=f"range_{f.key}",
+                            help=f"range of {f.range_name} for {f.title}")
     parser.add_argument("--digits", metavar="N", help=f"significant digits of the decimals, 1 to {MAX_DIGITS:,}")
     parser.add_argument("--latex-style", metavar="STYLE", help="LaTeX style of the values: root, rational or inline")
     parser.add_argument("--title", help="title of the build (no control characters)")

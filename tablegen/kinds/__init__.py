@@ -50,7 +50,7 @@ class _Record:
     def __repr__(self) -> str:
         return f"{type(self).__name__}({', '.join(f'{f}={getattr(self, f)!r}' for f in self._fields)})"
 
-__all__ = ["Kind", "Notation", "Selection", "ZeroRule", "KINDS", "KIND_KEYS", "kind"]
+__all__ = ["Kind", "Notation", "Selection", "ZeroRule", "KINDS", "KIND_KEYS", "ALL_KINDS", "ALL_KIND_KEYS", "kind"]
 
 
 class ZeroRule(_Record):
@@ -75,11 +75,13 @@ class Notation(_Record):
       "braket"   <g0; g1; ... | last group> (CG: <j1 m1; j2 m2 | J M>);
       "function" name(g0; g1) (W(a b c d; e f)).
     groups: argument positions per row / group, in writing order.
+    tex: a LaTeX pattern with {0}, {1}, ... for the arguments, where the symbol is printed otherwise than
+      its style says (a rotation function: 'd^{{{0}}}_{{{1},{2}}}(\\beta)'); empty for the style's form.
     """
 
-    __slots__ = ("style", "groups", "brackets", "name")
+    __slots__ = ("style", "groups", "brackets", "name", "tex")
     _fields = __slots__
-    _defaults = {"brackets": "", "name": ""}
+    _defaults = {"brackets": "", "name": "", "tex": ""}
 
 
 class Selection(_Record):
@@ -151,10 +153,13 @@ class Kind(_Record):
         return self.doubled(*self.parse(values, max_j))
 
 
-from .registry import KINDS  # noqa: E402  (the explicit list, built from the kind modules)
+from .registry import KINDS, TABULATED_FUNCTIONS  # noqa: E402  (the explicit lists, built from the kind modules)
 
 KIND_KEYS = tuple(k.key for k in KINDS)
-_BY_KEY = {k.key: k for k in KINDS}
+#: every kind a site may tabulate, in the order of values.txt: the numbers, then the functions
+ALL_KINDS = KINDS + TABULATED_FUNCTIONS
+ALL_KIND_KEYS = tuple(k.key for k in ALL_KINDS)
+_BY_KEY = {k.key: k for k in ALL_KINDS}
 
 
 def kind(key: str) -> Kind:
@@ -162,4 +167,4 @@ def kind(key: str) -> Kind:
     try:
         return _BY_KEY[key]
     except (KeyError, TypeError):
-        raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(KIND_KEYS)}") from None
+        raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(ALL_KIND_KEYS)}") from None

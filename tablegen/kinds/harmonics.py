@@ -20,7 +20,7 @@ from ..intmath import factorial
 from ..values.surd import Surd
 from ..values.pi_power import PiPower
 from ..values.trig_poly import TrigPoly, poly_mul
-from . import Kind, Notation, ZeroRule
+from . import Kind, Notation, Selection, ZeroRule
 
 __all__ = ["SphericalHarmonic", "y2", "y_zero_rule", "SPHERICAL_Y"]
 
@@ -45,6 +45,9 @@ class SphericalHarmonic:
 
     def __setattr__(self, name: str, value: object) -> None:
         raise AttributeError("SphericalHarmonic is immutable")
+
+    def __reduce__(self):  # a build's worker processes send values back pickled
+        return (SphericalHarmonic, (self._theta, self._m))
 
     theta_part = property(lambda self: self._theta, doc="the function of theta, without the 1/sqrt(pi)")
     m = property(lambda self: self._m)
@@ -84,7 +87,8 @@ class SphericalHarmonic:
         parts = [self.coefficient.latex(style)]
         u = self._unit().latex(style)
         if u != "1":
-            parts.append(f"\\left({u}\\right)" if len(self._theta.coeffs) > 1 and self._theta.half == "1" else u)
+            terms = sum(1 for c in self._theta.coeffs if c)  # a single power of cos needs no brackets
+            parts.append(f"\\left({u}\\right)" if terms > 1 and self._theta.half == "1" else u)
         if self._m:
             parts.append("e^{i\\phi}" if self._m == 1 else f"e^{{{'-' if self._m < 0 else ''}"
                          f"{'' if abs(self._m) == 1 else abs(self._m)}i\\phi}}")
@@ -138,7 +142,7 @@ def _y_parse(values, max_j=None) -> tuple[int, ...]:
     return tl, parse_m(m, "m", tl, "l", max_j)
 
 
-#: The Kind record for Y_l^m; not yet in the registry (the site family comes first).
+#: The Kind record for Y_l^m; the site tabulates it (registry.TABULATED_FUNCTIONS).
 SPHERICAL_Y = Kind(
     key="Y",
     title="spherical harmonic",
@@ -147,5 +151,6 @@ SPHERICAL_Y = Kind(
     parse=_y_parse,
     doubled=y2,  # returns a SphericalHarmonic: the record's type hint needs widening
     zero_rule=y_zero_rule,
-    notation=Notation("function", ((0, 1),), name="Y"),
+    notation=Notation("function", ((0, 1),), name="Y", tex="Y_{{{0}}}^{{{1}}}(\\theta, \\phi)"),
+    selection=Selection(projections=((0, 1),)),  # m belongs to l
 )

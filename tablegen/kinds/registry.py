@@ -1,4 +1,9 @@
-"""The explicit list of kinds, in the order they appear everywhere (values.txt, data, pages)."""
+"""The explicit lists of kinds, in the order they appear everywhere (values.txt, data, pages).
+
+KINDS: the kinds whose values are numbers (coupling symbols, recoupling coefficients).
+TABULATED_FUNCTIONS: the function-valued kinds the site tabulates (d^j(beta), its
+values at fixed angles, Y_l^m), after them.
+"""
 
 from __future__ import annotations
 
@@ -11,3 +16,6 @@ from .states import STATE3, STATE4
 from .threej import CG, THREEJ
 
 KINDS: tuple[Kind, ...] = (CG, THREEJ, SIXJ, RACAH_W, NINEJ, RECOUPLE3, RECOUPLE4, LSJJ, STATE3, STATE4)
+
+# -- function-valued kinds shown by the site (rotation and harmonics families) --
+from .tabulated_functions import TABULATED_FUNCTIONS  # noqa: E402

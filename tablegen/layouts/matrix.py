@@ -6,7 +6,9 @@ and columns j23; a rotation matrix d^j(beta) for fixed j (and angle), rows m'
 and columns m.  The family supplies ``blocks``: for a range of j, the blocks
 in order, each with its parameters, its row and column labels and the key of
 each cell (None where no value exists).  Blocks that share their first
-parameter go onto one page.  The names of the block parameters, of the row
+parameter go onto one page; a layout with no block parameters (``block=()``)
+puts its one matrix on one page, ``{key}/all.html``, with cell anchors
+``row=..,column=..`` (the harmonics: rows m, columns l).  The names of the block parameters, of the row
 and of the column are argument names of the family's kind, so that a value's
 page and anchor follow from its arguments alone (the jump box relies on it).
 """
@@ -76,6 +78,7 @@ class MatrixLayout:
     # the family whose value each cell is made of (the 6j of a recoupling coefficient), and the map from a
     # cell's key to that value's key: a cell links to it where that family's layout tabulates it in this build
     count: "Callable[[int, int], int] | None" = field(default=None, repr=False)  # exact cells for (min 2j, max 2j)
+    count_closed: bool = False  # ``count`` is a closed form, fast for any range: the size guard never extrapolates it
     source: str = ""
     source_key: "Callable[[tuple[int, ...]], tuple[int, ...]] | None" = field(default=None, repr=False)
     page_params: int = 1  # how many leading block parameters a page is named by
@@ -86,11 +89,14 @@ class MatrixLayout:
     row_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
     column_ket: "Callable[[tuple, object], tuple[str, str]] | None" = field(default=None, repr=False)
     exchange: "Exchange | None" = None  # values filed under another form (l1 > l2 of LS-jj under l1 < l2)
+    tex_list: bool = False  # LaTeX lists the values (symbol = value, one a line): functions too wide for a row
 
     name = "matrix"
 
     def page_path(self, key: str, *values: int) -> str:
         """'key/j1-1.5.html'; with two page parameters 'key/l1-1_l2-2.html'."""
+        if not self.block:
+            return f"{key}/all.html"
         return f"{key}/" + "_".join(f"{n}-{file_code(v)}" for n, v in zip(self.block, values)) + ".html"
 
     @staticmethod
@@ -116,18 +122,22 @@ class MatrixLayout:
         return ",".join(f"{n}={half(v)}" for n, v in zip(names, values))
 
     def anchor(self, block: str, tr: "int | tuple[int, ...]", tc: "int | tuple[int, ...]") -> str:
-        return f"{block};{self._assign(self.row_names, tr)},{self._assign(self.column_names, tc)}"
+        cell = f"{self._assign(self.row_names, tr)},{self._assign(self.column_names, tc)}"
+        return f"{block};{cell}" if self.block else cell
 
     def row_anchor(self, block: str, tr: "int | tuple[int, ...]") -> str:
         return f"row:{block};{self._assign(self.row_names, tr)}"
 
     def page_pattern(self, key: str) -> str:
         """The page path with argument names in braces (the jump box fills them in)."""
+        if not self.block:
+            return f"{key}/all.html"
         return f"{key}/" + "_".join(f"{n}-{{{n}}}" for n in self.block[: self.page_params]) + ".html"
 
     def anchor_pattern(self) -> str:
         block = ",".join(f"{n}={{{n}}}" for n in self.block)
-        return f"{block};" + ",".join(f"{n}={{{n}}}" for n in self.row_names + self.column_names)
+        cell = ",".join(f"{n}={{{n}}}" for n in self.row_names + self.column_names)
+        return f"{block};{cell}" if self.block else cell
 
     @property
     def params(self) -> tuple[str, ...]:
@@ -156,7 +166,7 @@ class MatrixLayout:
         for named, blocks in by_page.items():
             sections = []
             for block in blocks:
-                anchor = self.block_anchor(block.params)
+                anchor = self.block_anchor(block.params) or "all"
                 grid, entries = [], []
                 for tr in block.rows:
                     line = []
@@ -172,7 +182,7 @@ class MatrixLayout:
                             entries.append(e)
                     grid.append(tuple(line))
                 sections.append(Section(
-                    title=", ".join(f"{n} = {half(v)}" for n, v in block.params),
+                    title=", ".join(f"{n} = {half(v)}" for n, v in block.params) or fam.title,
                     anchor=anchor,
                     entries=tuple(entries),
                     rows=block.rows,
@@ -182,14 +192,15 @@ class MatrixLayout:
                     params=block.params,
                     column_tex=block.column_tex,
                 ))
-            tid = f"{fam.key}-" + "_".join(f"{n}-{file_code(v)}" for n, v in named)
+            tid = f"{fam.key}-" + ("_".join(f"{n}-{file_code(v)}" for n, v in named) or "all")
             words = ", ".join(f"{n} = {half(v)}" for n, v in named)
             if self.page_name:
                 words = f"{self.page_name(named)} ({words})"
-            title = f"{fam.title} for {words}"
+            title = f"{fam.title} for {words}" if words else fam.title  # no block parameters: the one page
             path = self.page_path(fam.key, *(v for _, v in named))
             tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=tuple(sections),
                                 params=named, kind=fam.kind, **table_files(tid)))
             index = Link(f"all {fam.nav_label} pages", f"index.html#{fam.key}")
-            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=f"{fam.nav_label}, {words}"))
+            label = f"{fam.nav_label}, {words}" if words else fam.nav_label
+            pages.append(Page(path, title, fam.key, (tid,), related=(index,), label=label))
         return chain(pages), tables

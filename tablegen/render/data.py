@@ -17,7 +17,7 @@ from typing import Iterator
 from ..buildinfo import BuildMeta, bibtex
 from ..compute import ValueBook
 from ..families import Family, named_symbol
-from ..kinds import KIND_KEYS, kind
+from ..kinds import ALL_KIND_KEYS, kind
 from ..plan import SitePlan, Table
 from ..spins import half_text
 
@@ -43,7 +43,7 @@ def values_header(kinds: "list[str] | tuple[str, ...]") -> str:
 
 def canonical_values(book: ValueBook) -> bytes:
     """values.txt: every value of the build, sorted, one per line."""
-    order = {f: i for i, f in enumerate(KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j, ...
+    order = {f: i for i, f in enumerate(ALL_KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j, ..., then functions
     items = sorted(book.items(), key=lambda kv: (order[kv[0][0]], kv[0][1]))
     lines = [f"{k} {' '.join(half_text(x) for x in key)} {shown.exact}\n" for (k, key), shown in items]
     kinds = sorted({k for k, _ in book}, key=order.__getitem__)
@@ -65,6 +65,9 @@ def _cells(table: Table, fam: Family, book: ValueBook) -> Iterator[list]:
         for c in fam.companions:
             args, sign = c.mapping(entry.key)
             row += [" ".join(half_text(x) for x in args), sign]
+        for a in fam.alongside:  # another kind at the same arguments: its exact, sign, p, q and decimal
+            other = book[(a.kind, entry.key)]
+            row += [other.exact, *(other.parts or (None, None, None)), other.decimal]
         yield row
 
 

@@ -23,11 +23,14 @@ from ..notation import half_text
 __all__ = ["templates_dir", "html_environment", "latex_environment", "tex_escape"]
 
 _NAME = re.compile(r"([A-Za-z]+)(\d*)(.*)")
+_PRIMED = re.compile(r"[a-z]p")  # an argument name for a primed letter: 'mp' = m′
 
 
 def qn_html(name: str) -> Markup:
     """A quantum-number name in HTML: 'm1' -> <i>m</i><sub>1</sub>, 'M' -> <i>M</i>."""
     letters, digits, rest = _NAME.fullmatch(name).groups()
+    if _PRIMED.fullmatch(letters) and not digits:  # 'mp' is m′, the argument names' way to write a prime
+        return Markup("<i>{}</i>′{}").format(letters[0], escape(rest))
     sub = Markup("<sub>{}</sub>").format(digits) if digits else ""
     return Markup("<i>{}</i>{}{}").format(letters, sub, escape(rest))
 
@@ -35,6 +38,8 @@ def qn_html(name: str) -> Markup:
 def qn_tex(name: str) -> str:
     """A quantum-number name in LaTeX math: 'm1' -> m_1, 'j12' -> j_{12}, 'M' -> M."""
     letters, digits, rest = _NAME.fullmatch(name).groups()
+    if _PRIMED.fullmatch(letters) and not digits:  # 'mp' -> m'
+        return f"{letters[0]}'{rest}"
     sub = "" if not digits else f"_{digits}" if len(digits) == 1 else f"_{{{digits}}}"
     return f"{letters}{sub}{rest}"
 

@@ -113,7 +113,7 @@ def _summary(site: _Site) -> list[dict]:
             "range": site.plan.recipe.family(fam.key).describe(),
             "count": f"{counts.get(fam.key, 0):,}",
             "forms": f"{forms:,}" if forms else None,
-            "companions": [c.label for c in fam.companions],
+            "companions": [c.label for c in fam.companions] + [f"value at {a.label}" for a in fam.alongside],
             "pages": len(dict(site.plan.family_pages)[fam.key]),
         })
     return rows
@@ -145,7 +145,11 @@ def _index_page(site: _Site, page: Page) -> bytes:
 
 
 def _text_page(site: _Site, page: Page) -> bytes:
-    body = render_text_page(page.kind, {"digits": str(site.plan.recipe.digits), "style": site.plan.recipe.latex_style})
+    facts = {"digits": str(site.plan.recipe.digits), "style": site.plan.recipe.latex_style}
+    body = render_text_page(page.kind, facts)
+    if page.kind == "conventions":  # then the sections of the families in this build that bring one
+        for name in dict.fromkeys(f.convention_text for f in site.plan.families if f.convention_text):
+            body += render_text_page(name, facts)
     return site.render("text.html", page, body=Markup(body))
 
 

@@ -9,7 +9,7 @@ prose/<family key>.html (prose/default.html when a family has none).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
 
 from markupsafe import Markup
@@ -103,7 +103,7 @@ def _tex_equation(kind_key: str, key: tuple[int, ...], tex: str) -> str:
     return f"{latex_symbol(kind(kind_key).notation, [half_text(x) for x in key])} = {tex}"
 
 
-def _tex_symbol_pattern(fam: Family, given: tuple[tuple[str, int], ...]) -> str:
+def _tex_symbol_pattern(fam: Family, given: tuple[tuple[str, int], ...], kind_key: str = "") -> str:
     """The family's symbol in LaTeX, the ``given`` arguments as numbers and every other one as @name@.
 
     A grid or matrix table carries it (data-e); site.js fills each @name@ from a
@@ -111,7 +111,7 @@ def _tex_symbol_pattern(fam: Family, given: tuple[tuple[str, int], ...]) -> str:
     "symbol = value" without the symbol written out once per cell.
     """
     known = dict(given)
-    k = fam.kind_record
+    k = kind(kind_key) if kind_key else fam.kind_record
     return latex_symbol(k.notation, [half_text(known[a]) if a in known else f"@{a}@" for a in k.arguments])
 
 
@@ -295,12 +295,12 @@ def _pages_index(site: "_Site", page: Page, fam: Family) -> dict:
     """A list of the family's pages with their counts (matrix layout)."""
     items = []
     for t in site.plan.tables_of(fam.key):
-        names, values = zip(*t.params)
+        names, values = zip(*t.params) if t.params else ((), ())  # no block parameters: the family's one page
         named = getattr(fam.layout, "page_name", None)
         items.append({
             "name": ", ".join(names),
             "label": ", ".join(_qn(v) for v in values),
-            "text": named(t.params) if named else ", ".join(f"{n} = {_qn(v)}" for n, v in t.params),
+            "text": named(t.params) if named else ", ".join(f"{n} = {_qn(v)}" for n, v in t.params) or t.title,
             "href": relative_url(page.path, t.page),
             "count": len(t.entries),
             "forms": sum(e.forms for e in t.entries),
@@ -335,21 +335,33 @@ def _names_html(names: tuple[str, ...]) -> Markup:
     return inner if len(names) == 1 else Markup("({})").format(inner)
 
 
+def _matrix_rows(site: "_Site", page: Page, fam: Family, s: Section, kind_key: str, suffix: str) -> list[Row]:
+    """A section's matrix of values of one kind; ids get ``suffix`` (a kind shown alongside: ';d(pi/2)')."""
+    rows = []
+    for r, tr in enumerate(s.rows):
+        cells = []
+        for e in s.grid[r]:
+            cell = None if e is None else _cell(site, page, kind_key, e, "")
+            cells.append(cell if cell is None or not suffix else replace(cell, anchor=cell.anchor + suffix))
+        rows.append(Row(label=_dash(fam.layout.label(tr)), anchor=s.row_anchors[r] + suffix, cells=tuple(cells)))
+    return rows
+
+
 def _matrix_page(site: "_Site", page: Page) -> bytes:
     table = site.plan.table(page.tables[0])
     fam = site.plan.family(table.family)
     sections = []
     for s in table.sections:
-        rows = []
+        rows = _matrix_rows(site, page, fam, s, fam.kind, "")
         label = fam.layout.label
-        for r, tr in enumerate(s.rows):
-            cells = tuple(None if e is None else _cell(site, page, fam.kind, e, "") for e in s.grid[r])
-            rows.append(Row(label=_dash(label(tr)), anchor=s.row_anchors[r], cells=cells))
+        alongside = [{"label": a.label, "rows": _matrix_rows(site, page, fam, s, a.kind, f";{a.kind}"),
+                      "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params, a.kind)}
+                     for a in fam.alongside]
         columns = ([Markup(mathml.math(mathml.value_inner(t))) for t in s.column_tex] if s.column_tex
                    else [_dash(label(c)) for c in s.columns])
         states = _state_lists(site, fam, s) if fam.layout.row_ket and fam.layout.column_ket else None
         sections.append({"title": s.title, "anchor": s.anchor, "columns": columns, "rows": rows, "states": states,
-                         "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params)})
+                         "tex_symbol": _tex_symbol_pattern(fam, table.params + s.params), "alongside": alongside})
     source = site.plan.family(fam.layout.source) if fam.layout.source in site.keys else None
     return site.render(
         "matrix.html",

@@ -124,6 +124,8 @@ def _lookup(book: ValueBook, kind_key: str) -> Callable[[Entry], Shown]:
 
 def latex_symbol(notation: Notation, parts: list[str]) -> str:
     """A symbol in LaTeX from its Notation record, each argument already written as LaTeX."""
+    if notation.tex:  # a symbol written as handbooks print it (d^j_{m'm}(beta), Y_l^m(theta, phi))
+        return notation.tex.format(*parts)
     groups = [[parts[i] for i in g] for g in notation.groups]
     if notation.style == "array":
         env = "pmatrix" if notation.brackets == "()" else "Bmatrix"
@@ -210,6 +212,11 @@ class _Helpers:
         return [entries[i : i + per_block] for i in range(0, len(entries), per_block)]
 
     @staticmethod
+    def list_blocks(entries: tuple[Entry, ...]) -> list[tuple[Entry, ...]]:
+        """Runs of a listed matrix (symbol = function, one a line), each at most BLOCK_LINES lines."""
+        return [entries[i : i + BLOCK_LINES] for i in range(0, len(entries), BLOCK_LINES)]
+
+    @staticmethod
     def qn_names(names: "str | tuple[str, ...]") -> str:
         """A label's argument name(s) in LaTeX math: 'j_{12}' or '(j_{12}, j_{34})'."""
         if isinstance(names, str):
@@ -257,7 +264,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
         "fragment_packages": FRAGMENT_PACKAGES,
         **{name: getattr(helpers, name) for name in (
             "family_name", "plain_family_name", "params", "plain_params", "section_params", "symbol",
-            "head_symbol", "plain_convention", "m_rule", "decimal_blocks", "row_blocks", "qn_names", "qn_label", "kets",
+            "head_symbol", "plain_convention", "m_rule", "decimal_blocks", "row_blocks", "list_blocks", "qn_names", "qn_label", "kets",
         )},
     }
     sheet = env.get_template("sheet.tex")
@@ -272,6 +279,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
                 layout=fam.layout,
                 fragment_file=posixpath.basename(table.tex),
                 value=_lookup(book, table.kind),
+                alongside=[(a.tex_label, _lookup(book, a.kind)) for a in fam.alongside],
             )
         )
         yield table.tex_sheet, _encode(
@@ -288,6 +296,7 @@ def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[t
             bibtex_lines=bibtex(meta).rstrip("\n").split("\n"),
             recipe_lines=meta.recipe_toml.rstrip("\n").split("\n"),
             citation=plain_citation(meta),
+            convention_texts=list(dict.fromkeys(f.convention_text for f in plan.families if f.convention_text)),
         )
     )
 

@@ -63,7 +63,7 @@ _TOKEN = re.compile(
 _IDENTIFIERS = {
     "alpha": "α", "beta": "β", "gamma": "γ", "delta": "δ", "epsilon": "ε", "lambda": "λ",
     "mu": "μ", "nu": "ν", "pi": "π", "rho": "ρ", "sigma": "σ", "tau": "τ", "phi": "φ",
-    "psi": "ψ", "omega": "ω", "Delta": "Δ", "Lambda": "Λ", "Sigma": "Σ", "Phi": "Φ",
+    "psi": "ψ", "omega": "ω", "theta": "θ", "Delta": "Δ", "Lambda": "Λ", "Sigma": "Σ", "Phi": "Φ",
     "Psi": "Ψ", "Omega": "Ω", "hbar": "ℏ", "ell": "ℓ",
 }
 _OPERATORS = {
@@ -71,7 +71,7 @@ _OPERATORS = {
     "le": "≤", "leq": "≤", "ge": "≥", "geq": "≥", "ne": "≠", "neq": "≠", "to": "→",
     "otimes": "⊗", "ldots": "…", "cdots": "⋯", "equiv": "≡", "approx": "≈", "in": "∈",
     "lvert": "|", "rvert": "|", "vert": "|", "mid": "|", "sum": "∑", "prod": "∏",
-    "lbrace": "{", "rbrace": "}", "lfloor": "⌊", "rfloor": "⌋", "lceil": "⌈", "rceil": "⌉",
+    "ast": "∗", "lbrace": "{", "rbrace": "}", "lfloor": "⌊", "rfloor": "⌋", "lceil": "⌈", "rceil": "⌉",
 }
 #: Function names written upright, followed by an invisible function application (U+2061).
 _FUNCTIONS = ("sin", "cos", "tan", "exp", "log")
