@@ -20,8 +20,10 @@ import re
 from pathlib import Path
 
 from . import symmetry
-from .coefficients import ARGUMENT_NAMES, DOUBLED, parse_arguments
+from .coefficients import parse_arguments
 from .errors import TablegenError
+from .families import FAMILIES
+from .kinds import ALL_KINDS
 from .notation import symbol_text
 from .recipe import MAX_DIGITS
 from .render.data import TABLE_FORMAT
@@ -38,6 +40,13 @@ def signed_square_text(value: Surd) -> str:
     return f"-{text}" if value.sign < 0 else text
 
 __all__ = ["check_values"]
+
+#: Every kind a site may hold (numbers, then the tabulated functions), from the records.
+ARGUMENT_NAMES = {k.key: k.arguments for k in ALL_KINDS}
+DOUBLED = {k.key: k.doubled for k in ALL_KINDS}
+#: The family key a data file's rows count under in the manifest, by the kind they hold ("d" -> "rotation").
+_FAMILY_OF_KIND = {f.kind: f.key for f in reversed(FAMILIES)}
+_TABLE_KIND = {f.key: f.kind for f in FAMILIES}  # a JSON table names its family; its rows hold that family's kind
 
 Key = tuple[str, tuple[str, ...]]
 
@@ -68,8 +77,8 @@ class _Checker:
         self.decimals: set[str] = set()
 
     def _shown(self, value: Surd) -> None:
-        """Remember |value| as a decimal: pages and LaTeX may print no other."""
-        if self.engine.digits is not None:
+        """Remember |value| as a decimal: pages and LaTeX may print no other (a function prints none)."""
+        if self.engine.digits is not None and isinstance(value, Surd):
             self.decimals.add(value.decimal(self.engine.digits).lstrip("-"))
 
     def problem(self, text: str) -> None:
@@ -98,16 +107,21 @@ class _Checker:
         self._shown(value)
         if exact is not None and exact != str(value):
             self.problem(f"{where}: {name}: exact {_cut(exact)}, but the engine gives {_cut(str(value))}")
+        function = not isinstance(value, Surd)  # a rotation function or a harmonic: no parts, no single decimal
         if written is not None:
             form, got = written
-            want = signed_square_text(value) if form == "square" else [str(value.sign), str(value.p), str(value.q)]
+            if function:
+                want = "" if form == "square" else ["", "", ""]
+                got = got if form == "square" else ["" if x is None else x for x in got]
+            else:
+                want = signed_square_text(value) if form == "square" else [str(value.sign), str(value.p), str(value.q)]
             if (got if form == "square" else [str(x) for x in got]) != want:
                 shown = got if form == "square" else " ".join(map(str, got))
                 wanted = want if form == "square" else " ".join(want)
                 self.problem(f"{where}: {name}: {'square' if form == 'square' else 'sign, p, q'} {_cut(shown)}, "
                              f"but the engine gives {_cut(wanted)}")
         if decimal is not None and self.engine.digits is not None:
-            want = value.decimal(self.engine.digits)
+            want = "" if function else value.decimal(self.engine.digits)
             if decimal != want:
                 self.problem(f"{where}: {name}: decimal {_cut(decimal)}, but the engine gives {_cut(want)}")
         return value
@@ -172,6 +186,10 @@ class _Checker:
         iparts = [head.index(c) for c in parts_columns]
         iw = head.index("w") if "w" in head else None
         iws = head.index("w_sign") if "w_sign" in head else None
+        # kinds tabulated at the same arguments: columns <kind>, <kind>_sign, _p, _q (or _square), _decimal
+        beside = [(other, head.index(other), [head.index(f"{other}_{c}") for c in parts_columns],
+                   head.index(f"{other}_decimal")) for other in head
+                  if other in ARGUMENT_NAMES and {f"{other}_{c}" for c in (*parts_columns, "decimal")} <= set(head)]
         keys = []
         for i, row in enumerate(rows[1:], 2):
             if len(row) != len(head):
@@ -183,6 +201,10 @@ class _Checker:
             if iw is not None and iws is not None:
                 self.sign_of(where, "w", value, row[iw], row[iws], "W")
                 self.in_tables.add(("w", tuple(row[iw].split(" "))))
+            for other, ie2, iparts2, idec2 in beside:
+                parts = ("square", row[iparts2[0]]) if len(iparts2) == 1 else ("parts", [row[k] for k in iparts2])
+                self.value(where, other, row[:n], row[ie2], parts, row[idec2])
+                self.in_tables.add((other, tuple(row[:n])))
             keys.append((family, tuple(row[:n])))
         self._table_rows(path, "csv", keys)
 
@@ -199,6 +221,7 @@ class _Checker:
             self.problem(f"{path}: not a {TABLE_FORMAT} file")
             return
         family, rows = doc.get("family"), doc.get("rows")
+        family = _TABLE_KIND.get(family, family) if isinstance(family, str) else family  # the kind its rows hold
         if not isinstance(family, str) or family not in ARGUMENT_NAMES:
             self.problem(f"{path}: unknown family {str(family)[:60]!r}")
             return
@@ -231,6 +254,12 @@ class _Checker:
                     self.sign_of(where, "w", value, " ".join(map(str, w["args"])), w.get("sign"), "W")
                 else:
                     self.problem(f"{where}: malformed W {str(w)[:60]}")
+            for other, forms in row.items():  # kinds at the same arguments: {"exact", "sign", "p", "q", "decimal"}
+                if other in ARGUMENT_NAMES and isinstance(forms, dict) and "exact" in forms:
+                    parts = (("square", forms.get("square")) if "square" in forms
+                             else ("parts", [forms.get("sign"), forms.get("p"), forms.get("q")]))
+                    self.value(where, other, args, forms.get("exact"), parts, forms.get("decimal"))
+                    self.in_tables.add((other, tuple(map(str, args))))
             keys.append((family, tuple(map(str, args))))
         self._table_rows(path, "json", keys)
 
@@ -257,6 +286,7 @@ class _Checker:
                 self.problem(f"values.txt line {i}: unknown family {family[:60]!r}")
                 continue
             n = len(ARGUMENT_NAMES[family])
+            parts = line.split(" ", n + 1)  # the value is the rest of the line (a function's text may hold spaces)
             if len(parts) != n + 2:
                 self.problem(f"values.txt line {i}: expected {n} arguments and a value")
                 continue
@@ -280,7 +310,8 @@ class _Checker:
             found: dict[str, int] = {}
             for kinds in self.rows.values():
                 for family, _ in kinds.get("csv", kinds.get("json", [])):
-                    found[family] = found.get(family, 0) + 1
+                    key = _FAMILY_OF_KIND.get(family, family)  # the manifest counts by family key
+                    found[key] = found.get(key, 0) + 1
             for family in sorted(set(counts) | set(found)):
                 if counts.get(family) != found.get(family, 0):
                     self.problem(

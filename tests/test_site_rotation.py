@@ -265,3 +265,43 @@ def test_size_guard_refuses_a_huge_rotation_recipe_with_its_estimate():
         check_size(recipe_from_mapping({"rotation": {"max_j": 80}}))
     assert "rotation: 1,404,081" in str(info.value)
     assert check_size(recipe_from_mapping({"rotation": {"max_j": 4}}))["rotation"] == sum((t + 1) ** 2 for t in range(9))
+
+
+# -- verify of a site made by another version: the functions and the values alongside, value by value -------
+@pytest.fixture()
+def other_version(monkeypatch):
+    """Pretend the installed tablegen is a later version: the site can no longer match byte for byte."""
+    import tablegen.build
+    import tablegen.verify
+
+    monkeypatch.setattr(tablegen.build, "__version__", "9.0.0")
+    monkeypatch.setattr(tablegen.verify, "__version__", "9.0.0")
+
+
+def test_another_versions_site_with_the_families_holds_value_by_value(capsys, built, other_version):
+    assert cli.main(["verify", str(built)]) == 0
+    out = capsys.readouterr().out
+    assert "value by value" in out and out.splitlines()[0].endswith(": OK"), out
+
+
+@pytest.mark.parametrize("path, old, new, words", [
+    # d^{1}_{1,0}(pi/2) = -sqrt(1/2) (Edmonds 1957, table 4.1: d^1_{10} = -sin(beta)/sqrt(2) — from memory)
+    ("data/rotation-j-1.csv", "1,1,0,-sqrt(1/2)*sin(beta),,,,,-sqrt(1/2),-1,1,2,", "1,1,0,-sqrt(1/2)*sin(beta),,,,,sqrt(1/2),-1,1,2,",
+     "data/rotation-j-1.csv line"),
+    ("data/rotation-j-1.json", '["1","1","0"],"exact":"-sqrt(1/2)*sin(beta)","sign":null,"p":null,"q":null,"decimal":"",'
+     '"d(pi/2)":{"exact":"-sqrt(1/2)","sign":-1', '["1","1","0"],"exact":"-sqrt(1/2)*sin(beta)","sign":null,"p":null,'
+     '"q":null,"decimal":"","d(pi/2)":{"exact":"-sqrt(1/2)","sign":1', "data/rotation-j-1.json row"),
+    ("values.txt", "Y 1 1 -sqrt(3/(8*pi))*sin(theta)*exp(I*phi)", "Y 1 1 sqrt(3/(8*pi))*sin(theta)*exp(I*phi)", "values.txt line"),
+])
+def test_value_by_value_catches_a_forged_function_or_angle_value(capsys, built, tmp_path, other_version,
+                                                                 path, old, new, words):
+    site = tmp_path / "site"
+    shutil.copytree(built, site)
+    text = (site / path).read_text(encoding="utf-8")
+    assert text.count(old) == 1, path
+    (site / path).write_text(text.replace(old, new), encoding="utf-8")
+    _reseal_all(site)
+    status = cli.main(["verify", str(site)])
+    out = capsys.readouterr().out
+    assert status == 1 and "value by value" in out
+    assert any(line.strip().startswith(words) for line in out.splitlines()[1:]), out
