@@ -663,3 +663,61 @@ def test_each_cell_links_to_its_twin_as_the_plan_says(tab, site, path):
         tab.page.wait_for_load_state("load")
         assert tab.page.url.endswith("3j/j1-1-j2-0.5.html#j3=1/2,m3=-1/2,m1=1")
     assert tab.problems == []
+# -- the rotation and harmonics families (issue 9): the jump box reaches a d^j entry and a Y ----------
+@pytest.fixture(scope="module")
+def rotation_site(tmp_path_factory):
+    from tablegen.build import render_outputs
+
+    plan = plan_site(recipe_from_mapping({"rotation": {"max_j": "3/2"}, "harmonics": {"max_l": 2}}))
+    book = compute_values(plan, jobs=1)
+    _, outputs = render_outputs(plan, book)
+    root = tmp_path_factory.mktemp("rotation") / "site"
+    for path, data in outputs:
+        (root / path).parent.mkdir(parents=True, exist_ok=True)
+        (root / path).write_bytes(data)
+    return root, plan, book
+
+
+def test_jump_box_lands_on_a_rotation_function_and_a_harmonic(browser, rotation_site):
+    root, plan, _ = rotation_site
+    w = Watched(browser, root)
+    try:
+        w.open("index.html")
+        _type(w.page, "d", ["3/2", "1/2", "-3/2"])  # d^{3/2}_{1/2,-3/2}
+        rot = plan.family("rotation").layout
+        _landed(w.page, rot.page_path("rotation", 3), rot.anchor(rot.block_anchor((("j", 3),)), 1, -3))
+        assert w.page.locator(f'[id="{rot.anchor("j=3/2", 1, -3)}"] math').count() == 1
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "Y", ["2", "-1"])
+        har = plan.family("harmonics").layout
+        _landed(w.page, har.page_path("harmonics"), har.anchor("", -2, 4))  # rows m, columns l
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "d", ["1", "2", "0"])  # |m'| > j: a zero by the selection rule, no navigation
+        w.page.wait_for_function("document.querySelector('#jump').textContent.includes('|mp| > j')", timeout=5000)
+        w.page.goto((root / "index.html").as_uri())
+        _type(w.page, "Y", ["3", "0"])  # l beyond the build's range: said, no navigation
+        w.page.wait_for_function("document.querySelector('#jump').textContent.includes('range')", timeout=5000)
+        assert w.problems == []
+    finally:
+        w.close()
+
+
+def test_rotation_cells_copy_symbol_equals_value(browser, rotation_site):
+    # each matrix has its own symbol: the function d^j_{m'm}(beta), then its values at pi/2 and pi/3
+    root, plan, book = rotation_site
+    w = Watched(browser, root, clipboard=True)
+    try:
+        t = plan.tables_of("rotation")[-1]
+        w.open(t.page)
+        entry = t.entries[1]
+        assert _copy_equation(w, w.page.locator(f'td[id="{entry.anchor}"]')) == _equation("d", entry.key, book)
+        for a in plan.family("rotation").alongside:
+            got = _copy_equation(w, w.page.locator(f'td[id="{entry.anchor};{a.kind}"]'))
+            assert got == _equation(a.kind, entry.key, book), a.kind
+        h = plan.tables_of("harmonics")[0]
+        w.open(h.page)
+        entry = h.entries[2]
+        assert _copy_equation(w, w.page.locator(f'td[id="{entry.anchor}"]')) == _equation("Y", entry.key, book)
+        assert w.problems == []
+    finally:
+        w.close()
