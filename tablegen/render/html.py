@@ -113,7 +113,8 @@ def _summary(site: _Site) -> list[dict]:
             "range": site.plan.recipe.family(fam.key).describe(),
             "count": f"{counts.get(fam.key, 0):,}",
             "forms": f"{forms:,}" if forms else None,
-            "companions": [c.label for c in fam.companions] + [f"value at {a.label}" for a in fam.alongside],
+            "companions": [c.label for c in fam.companions]
+            + ([f"values at {' and '.join(a.label for a in fam.alongside)}"] if fam.alongside else []),
             "pages": len(dict(site.plan.family_pages)[fam.key]),
         })
     return rows
