@@ -153,13 +153,29 @@ class Kind(_Record):
         return self.doubled(*self.parse(values, max_j))
 
 
-from .registry import KINDS, TABULATED_FUNCTIONS  # noqa: E402  (the explicit lists, built from the kind modules)
+from .registry import KINDS  # noqa: E402  (the explicit list, built from the kind modules)
 
 KIND_KEYS = tuple(k.key for k in KINDS)
-#: every kind a site may tabulate, in the order of values.txt: the numbers, then the functions
-ALL_KINDS = KINDS + TABULATED_FUNCTIONS
-ALL_KIND_KEYS = tuple(k.key for k in ALL_KINDS)
-_BY_KEY = {k.key: k for k in ALL_KINDS}
+_BY_KEY = {k.key: k for k in KINDS}
+
+
+def _all_kinds() -> tuple:
+    """Every kind a site may tabulate, in the order of values.txt: the numbers, then the functions.
+
+    The function kinds (registry.tabulated_functions) are imported on first use: a one-value
+    lookup of a number never needs them, and they would add to its start-up time.
+    """
+    from .registry import tabulated_functions
+
+    return KINDS + tabulated_functions()
+
+
+def __getattr__(name: str):  # ALL_KINDS, ALL_KIND_KEYS: module attributes made on first use
+    if name == "ALL_KINDS":
+        return _all_kinds()
+    if name == "ALL_KIND_KEYS":
+        return tuple(k.key for k in _all_kinds())
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
 
 
 def kind(key: str) -> Kind:
@@ -167,4 +183,9 @@ def kind(key: str) -> Kind:
     try:
         return _BY_KEY[key]
     except (KeyError, TypeError):
-        raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(ALL_KIND_KEYS)}") from None
+        pass
+    every = _all_kinds()
+    for k in every[len(KINDS):]:
+        if k.key == key:
+            return k
+    raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(k.key for k in every)}") from None

@@ -17,5 +17,12 @@ from .threej import CG, THREEJ
 
 KINDS: tuple[Kind, ...] = (CG, THREEJ, SIXJ, RACAH_W, NINEJ, RECOUPLE3, RECOUPLE4, LSJJ, STATE3, STATE4)
 
-# -- function-valued kinds shown by the site (rotation and harmonics families) --
-from .tabulated_functions import TABULATED_FUNCTIONS  # noqa: E402
+
+def tabulated_functions() -> tuple[Kind, ...]:
+    """The function-valued kinds shown by the site (rotation and harmonics families), after KINDS.
+
+    A function, not a constant: importing them is left to the first caller (see kinds._all_kinds).
+    """
+    from .tabulated_functions import TABULATED_FUNCTIONS
+
+    return TABULATED_FUNCTIONS
