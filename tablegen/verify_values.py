@@ -414,4 +414,7 @@ def _named_row(columns: list[str], row: object, n: int) -> object:
     if "w" in cell:
         w_args = cell["w"]
         named["w"] = {"args": w_args.split(" ") if isinstance(w_args, str) else w_args, "sign": cell.get("w_sign")}
+    for other in columns:  # a kind tabulated at the same arguments: columns <kind>, <kind>_sign, _p, _q, _decimal
+        if other in ARGUMENT_NAMES and f"{other}_decimal" in cell:
+            named[other] = {"exact": cell[other], **{k: cell.get(f"{other}_{k}") for k in ("sign", "p", "q", "decimal")}}
     return named
