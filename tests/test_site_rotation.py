@@ -156,17 +156,20 @@ def test_data_files_carry_each_entry_with_its_angle_values(small_files):
     rows = _csv_rows(files["data/rotation-j-1.5.csv"].decode("utf-8"))
     assert len(rows) == 16
     doc = json.loads(files["data/rotation-j-1.5.json"])
-    for row, jrow in zip(rows, doc["rows"]):
+    assert doc["columns"] == list(rows[0])  # the CSV's columns, the values alongside included
+    for row, cells in zip(rows, doc["rows"]):
+        jrow = dict(zip(doc["columns"], cells))
         key = tuple(int(2 * _half(row[k])) for k in ("j", "mp", "m"))
         for k in ("d(pi/2)", "d(pi/3)"):
             shown = book[(k, key)]
             sign, p, q = (str(x) for x in shown.parts)
             assert [row[k], row[f"{k}_sign"], row[f"{k}_p"], row[f"{k}_q"], row[f"{k}_decimal"]] == \
                 [shown.exact, sign, p, q, shown.decimal]
-            assert jrow[k] == {"exact": shown.exact, "sign": shown.parts[0], "p": shown.parts[1],
-                               "q": shown.parts[2], "decimal": shown.decimal}
+            assert [jrow[k], jrow[f"{k}_sign"], jrow[f"{k}_p"], jrow[f"{k}_q"], jrow[f"{k}_decimal"]] == \
+                [shown.exact, *shown.parts, shown.decimal]  # typed: sign, p, q are integers
         # a function has no parts sign, p, q and no single decimal
         assert row["exact"] == book[("d", key)].exact and [row[c] for c in ("sign", "p", "q", "decimal")] == [""] * 4
+        assert [jrow[c] for c in ("sign", "p", "q", "decimal")] == [None, None, None, ""]
 
 
 def test_latex_fragments_and_sheets_compile(small_files, tmp_path):
@@ -288,9 +291,8 @@ def test_another_versions_site_with_the_families_holds_value_by_value(capsys, bu
     # d^{1}_{1,0}(pi/2) = -sqrt(1/2) (Edmonds 1957, table 4.1: d^1_{10} = -sin(beta)/sqrt(2) — from memory)
     ("data/rotation-j-1.csv", "1,1,0,-sqrt(1/2)*sin(beta),,,,,-sqrt(1/2),-1,1,2,", "1,1,0,-sqrt(1/2)*sin(beta),,,,,sqrt(1/2),-1,1,2,",
      "data/rotation-j-1.csv line"),
-    ("data/rotation-j-1.json", '["1","1","0"],"exact":"-sqrt(1/2)*sin(beta)","sign":null,"p":null,"q":null,"decimal":"",'
-     '"d(pi/2)":{"exact":"-sqrt(1/2)","sign":-1', '["1","1","0"],"exact":"-sqrt(1/2)*sin(beta)","sign":null,"p":null,'
-     '"q":null,"decimal":"","d(pi/2)":{"exact":"-sqrt(1/2)","sign":1', "data/rotation-j-1.json row"),
+    ("data/rotation-j-1.json", '["1","1","0","-sqrt(1/2)*sin(beta)",null,null,null,"","-sqrt(1/2)",-1,',
+     '["1","1","0","-sqrt(1/2)*sin(beta)",null,null,null,"","-sqrt(1/2)",1,', "data/rotation-j-1.json row"),
     ("values.txt", "Y 1 1 -sqrt(3/(8*pi))*sin(theta)*exp(I*phi)", "Y 1 1 sqrt(3/(8*pi))*sin(theta)*exp(I*phi)", "values.txt line"),
 ])
 def test_value_by_value_catches_a_forged_function_or_angle_value(capsys, built, tmp_path, other_version,
