@@ -213,7 +213,7 @@ def test_fresh_build_with_the_families_verifies(capsys, built):
 
 @pytest.mark.parametrize("old, new, words", [
     # d^{1/2}_{1/2,-1/2}(pi/2) = -sin(pi/4) = -sqrt(1/2) (the worked example of the conventions page)
-    ("d(pi/2) 1/2 1/2 -1/2 -sqrt(1/2)", "d(pi/2) 1/2 1/2 -1/2 sqrt(1/2)", "d(1/2; 1/2 -1/2)"),
+    ("d(pi/2) 1/2 1/2 -1/2 -sqrt(1/2)", "d(pi/2) 1/2 1/2 -1/2 sqrt(1/2)", "d(pi/2)(1/2; 1/2 -1/2)"),
     ("d 1/2 1/2 -1/2 -sin(beta/2)", "d 1/2 1/2 -1/2 sin(beta/2)", "d(1/2; 1/2 -1/2)"),
 ])
 def test_verify_catches_a_forged_d_value_everywhere_resealed(capsys, built, tmp_path, old, new, words):

@@ -40,7 +40,8 @@ def _d_at(key: str, angle: str, title: str, tex: str) -> Kind:
         parse=ROTATION_D_SMALL.parse,
         doubled=partial(d_at_angle, angle),
         zero_rule=ROTATION_D_SMALL.zero_rule,
-        notation=Notation("function", ((0,), (1, 2)), name="d", tex="d^{{{0}}}_{{{1},{2}}}(" + tex + ")"),
+        # plain text names the angle ('d(pi/2)(1; 1 0)'); LaTeX writes it as handbooks do, d^{1}_{1,0}(\pi/2)
+        notation=Notation("function", ((0,), (1, 2)), name=key, tex="d^{{{0}}}_{{{1},{2}}}(" + tex + ")"),
         selection=ROTATION_D_SMALL.selection,
     )
 
