@@ -142,7 +142,7 @@ def _y_parse(values, max_j=None) -> tuple[int, ...]:
     return tl, parse_m(m, "m", tl, "l", max_j)
 
 
-#: The Kind record for Y_l^m; the site tabulates it (registry.TABULATED_FUNCTIONS).
+#: The Kind record for Y_l^m; the site tabulates it (kinds/tabulated_functions.py).
 SPHERICAL_Y = Kind(
     key="Y",
     title="spherical harmonic",

@@ -231,7 +231,7 @@ def _d_members(tj: int, tmp: int, tm: int) -> list[tuple[tuple[int, ...], int]]:
     return sorted(seen.items(), reverse=True)
 
 
-#: The Kind record for d^j_{m'm}(beta); the site tabulates it (registry.TABULATED_FUNCTIONS).
+#: The Kind record for d^j_{m'm}(beta); the site tabulates it (kinds/tabulated_functions.py).
 ROTATION_D_SMALL = Kind(
     key="d",
     title="Wigner rotation function d",
@@ -253,7 +253,7 @@ def D2(tj: int, tmp: int, tm: int) -> RotationD:
     return RotationD(tmp, tm, d2(tj, tmp, tm))
 
 
-#: The Kind record for D^j_{m'm}(alpha, beta, gamma); like d, not in the registry of tabulated kinds.
+#: The Kind record for D^j_{m'm}(alpha, beta, gamma); not tabulated by the site (d is, with D = phases times d).
 ROTATION_D_BIG = Kind(
     key="D",
     title="Wigner rotation function D",
