@@ -174,7 +174,7 @@ def build(
     """Write the site for ``recipe`` into ``out_dir`` (replacing a previous site)."""
     started = time.perf_counter()
     estimate = check_size(recipe, allow_large)  # refuse before any computing: values, then bytes
-    check_bytes(estimate, allow_large)
+    check_bytes(estimate, allow_large, recipe)
     check_target(out_dir, discard_extra)  # refuse before any computing, too
     check_text(recipe)
 

@@ -26,14 +26,25 @@ BYTES_LIMIT = 1_000_000_000
 BYTES_PER_VALUE = {"grid": 750, "classes": 3_100, "matrix": 750}
 
 
-def estimate_bytes(values: dict[str, int]) -> dict[str, int]:
-    """Bytes on disk per family, from the value estimate per family key."""
-    return {key: n * BYTES_PER_VALUE.get(family(key).layout.name, 3_100) for key, n in values.items()}
+def estimate_bytes(values: dict[str, int], recipe=None) -> dict[str, int]:
+    """Bytes on disk per family, from the value estimate per family key.
+
+    A family whose record has its own rate (``Family.bytes_per_value``, from the
+    range's largest j: a rotation function's text grows with j) uses it when the
+    recipe is given; the others use their layout's rate.
+    """
+    out = {}
+    for key, n in values.items():
+        fam = family(key)
+        f = recipe.family(key) if recipe is not None else None
+        rate = fam.bytes_per_value(f.max_tj) if fam.bytes_per_value and f else None
+        out[key] = n * (rate or BYTES_PER_VALUE.get(fam.layout.name, 3_100))
+    return out
 
 
-def check_bytes(values: dict[str, int], allow_large: bool = False) -> dict[str, int]:
+def check_bytes(values: dict[str, int], allow_large: bool = False, recipe=None) -> dict[str, int]:
     """Refuse, before any computing, a build whose files would exceed BYTES_LIMIT on disk."""
-    est = estimate_bytes(values)
+    est = estimate_bytes(values, recipe)
     total = sum(est.values())
     if total > BYTES_LIMIT and not allow_large:
         parts = ", ".join(f"{k}: ~{_mb(v)}" for k, v in est.items())

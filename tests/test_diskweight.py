@@ -18,8 +18,24 @@ def test_the_estimate_is_close_to_the_committed_site() -> None:
     # the committed site is the default recipe's real output: the estimate must be within a factor 1.5
     site = REPO / "site"
     real = sum(p.stat().st_size for p in site.rglob("*") if p.is_file())
-    guess = sum(estimate_bytes(estimate_size(load_recipe(str(site / "recipe.toml")))).values())
+    recipe = load_recipe(str(site / "recipe.toml"))
+    guess = sum(estimate_bytes(estimate_size(recipe), recipe).values())
     assert real / 1.5 < guess < real * 1.5, (guess, real)
+
+
+@pytest.mark.slow
+@pytest.mark.parametrize("ranges", [{"rotation": {"max_j": 8}}, {"harmonics": {"max_l": 24}}])
+def test_the_estimate_follows_functions_that_grow_with_j(tmp_path, ranges) -> None:
+    # a rotation function's or a harmonic's text grows with j: the family's own rate, within a factor 1.5
+    from tablegen.recipe import recipe_from_mapping
+
+    recipe = recipe_from_mapping(ranges)
+    build_module.build(recipe, tmp_path / "site", jobs=1)
+    real = sum(p.stat().st_size for p in (tmp_path / "site").rglob("*") if p.is_file())
+    guess = sum(estimate_bytes(estimate_size(recipe), recipe).values())
+    assert real / 1.5 < guess < real * 1.5, (guess, real)
+    # without the recipe (no range) the layout's flat rate is all the guard has: far lower
+    assert sum(estimate_bytes(estimate_size(recipe)).values()) < guess
 
 
 def test_a_build_too_large_on_disk_is_refused_before_computing(tmp_path, monkeypatch) -> None:
