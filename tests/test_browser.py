@@ -663,6 +663,8 @@ def test_each_cell_links_to_its_twin_as_the_plan_says(tab, site, path):
         tab.page.wait_for_load_state("load")
         assert tab.page.url.endswith("3j/j1-1-j2-0.5.html#j3=1/2,m3=-1/2,m1=1")
     assert tab.problems == []
+
+
 # -- the rotation and harmonics families (issue 9): the jump box reaches a d^j entry and a Y ----------
 @pytest.fixture(scope="module")
 def rotation_site(tmp_path_factory):
