@@ -124,31 +124,47 @@ def _silence_stdout() -> None:
 
 # -- parsing -------------------------------------------------------------------
 def _parse(argv: list[str]):
-    """The namespace of the command line, with ``run`` set to the command's function."""
+    """The namespace of the command line, with ``run`` set to the command's function.
+
+    A known command gets a parser of its own ("tablegen value ..."), built
+    alone: the other commands' parsers cost start-up time and are never used.
+    No command, an unknown one, --help or --version go to the main parser.
+    """
     from . import __version__
-    from .commands import COMMANDS, command
+    from .commands import command
 
     wanted = command(argv[0]) if argv else None
-    parser, chosen = _parser(COMMANDS, wanted, __version__)
-    if wanted is not None:
-        argv = [argv[0], *_normalise(chosen, argv[1:])]
-    ns, extras = parser.parse_known_args(argv)
+    if wanted is None:
+        parser = _main_parser(__version__)
+        ns, extras = parser.parse_known_args(argv)
+        if extras:
+            raise UsageError(f"argument {extras[0]!r}: unknown option or extra argument (see tablegen --help)")
+        parser.print_help(sys.stderr)  # no command given (a command name is parsed above)
+        return None
+    parser = _command_parser(wanted, prog=f"tablegen {wanted.name}")
+    ns, extras = parser.parse_known_args(_normalise(parser, argv[1:]))
     if extras:
         raise UsageError(f"argument {extras[0]!r}: unknown option or extra argument (see tablegen {argv[0]} --help)")
-    if getattr(ns, "run", None) is None:
-        parser.print_help(sys.stderr)
-        return None
     return ns
 
 
-def _parser(commands, wanted, version: str):
+def _parser_classes():
+    """argparse's parser and help formatter, adapted: imported when a command line is parsed."""
     import argparse
 
     class Parser(argparse.ArgumentParser):
-        """argparse, but a mistake becomes one UsageError line (no usage dump)."""
+        """argparse, but a mistake becomes one UsageError line (no usage dump), and the
+        description may be a function, called only when the help is shown."""
+
+        describe = None
 
         def error(self, message: str):  # type: ignore[override]
             raise UsageError(message)
+
+        def format_help(self) -> str:
+            if self.describe is not None:
+                self.description = self.describe()
+            return super().format_help()
 
     class Formatter(argparse.HelpFormatter):
         """argparse's help layout, measuring the terminal without importing shutil (start-up time)."""
@@ -164,6 +180,29 @@ def _parser(commands, wanted, version: str):
                 kwargs["width"] = max(columns, 40) - 2
             super().__init__(prog, **kwargs)
 
+    return Parser, Formatter
+
+
+def _command_parser(c, prog: str):
+    """The parser of one command, its options added and ``run`` set."""
+    module = c.load()
+    Parser, Formatter = _parser_classes()
+    parser = Parser(prog=prog, allow_abbrev=False, formatter_class=Formatter)
+    describe = getattr(module, "description", None)
+    if describe is not None:
+        parser.describe = describe
+    else:
+        parser.description = module.DESCRIPTION
+    module.add_arguments(parser)
+    parser.set_defaults(run=module.run)
+    return parser
+
+
+def _main_parser(version: str):
+    """``tablegen`` with every command listed (for --help, --version and a missing or unknown command)."""
+    from .commands import COMMANDS, SUMMARIES
+
+    Parser, Formatter = _parser_classes()
     parser = Parser(
         prog="tablegen", allow_abbrev=False, formatter_class=Formatter,
         description="Exact Clebsch-Gordan, 3j, 6j, Racah W and 9j values and reference tables "
@@ -171,24 +210,11 @@ def _parser(commands, wanted, version: str):
     )
     parser.add_argument("--version", action="version", version=f"tablegen {version}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=Parser)
-    chosen = None
-    for c in commands:
-        if c is wanted:
-            module = c.load()
-            describe = getattr(module, "description", None)
-            chosen = sub.add_parser(
-                c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter,
-                description=describe() if describe else module.DESCRIPTION,
-            )
-            module.add_arguments(chosen)
-            chosen.set_defaults(run=module.run)
-        else:  # listed for help and for the choice of command, never parsed
-            sub.add_parser(c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter)
-    from .commands import SUMMARIES
-
+    for c in COMMANDS:  # listed for help and for the choice of command, never parsed here
+        sub.add_parser(c.name, help=c.help, allow_abbrev=False, formatter_class=Formatter)
     for name, summary in SUMMARIES:  # commands with parsers of their own (commands.route), listed for help
         sub.add_parser(name, help=summary, add_help=False)
-    return parser, chosen
+    return parser
 
 
 def _normalise(parser, args: list[str]) -> list[str]:

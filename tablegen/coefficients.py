@@ -73,22 +73,6 @@ def why_zero(kind_key: str, *values, max_j: int | None = None) -> str | None:
     return None if rule is None else str(rule)
 
 
-# ---------------------------------------------------------------------------
-# Compatibility views, removed when cli/verify/plan move to kinds: each is
-# derived from kinds.KINDS, nothing here is a second source.
-# ---------------------------------------------------------------------------
-from .kinds import KIND_KEYS as KINDS  # noqa: E402
-from .kinds import KINDS as _KIND_RECORDS  # noqa: E402
-
-ARGUMENT_NAMES = {k.key: k.arguments for k in _KIND_RECORDS}
-DOUBLED = {k.key: k.doubled for k in _KIND_RECORDS}
-
-
-def parse_arguments(kind_key: str, values, max_j: int | None = None) -> tuple[int, ...]:
-    """Doubled arguments of a kind's symbol, checked (QuantumNumberError)."""
-    return kind(kind_key).parse(tuple(values), max_j)
-
-
 def why_zero_doubled(kind_key: str, t: tuple[int, ...]) -> str | None:
     """Which rule makes a symbol zero (doubled arguments), or None if it is not zero."""
     rule = kind(kind_key).zero_rule(tuple(t))

@@ -13,7 +13,6 @@ zero (triads.py and kinds/ say which rule did it).
 
 from __future__ import annotations
 
-import numbers
 import sys
 
 from .errors import OptionError, QuantumNumberError
@@ -65,6 +64,8 @@ def _doubled(value: object, argument: str) -> int:
         raise QuantumNumberError(argument, value, RULE_NOT_NUMBER)
     if isinstance(value, str):
         return _doubled_from_text(value, argument)
+    import numbers  # here, not above: the command line passes text and never needs it
+
     if isinstance(value, numbers.Integral):
         return 2 * int(value)
     if isinstance(value, numbers.Rational):

@@ -371,18 +371,17 @@ def _value_named(path: str, want_text: str, line: "str | list | None") -> str:
         from .kinds import ALL_KINDS, kind
         from .notation import symbol_text
 
-        ARGUMENT_NAMES = {k.key: k.arguments for k in ALL_KINDS}  # numbers and tabulated functions
         if path == "values.txt":
             parts = line.split(" ")
-            family, args = parts[0], parts[1 : 1 + len(ARGUMENT_NAMES[parts[0]])]
+            family, args = parts[0], parts[1 : 1 + len(kind(parts[0]).arguments)]
         elif path.endswith(".csv"):
             header = want_text.split("\n", 1)[0]
-            family = next(f for f, names in ARGUMENT_NAMES.items() if f != "w" and header.startswith(",".join(names) + ","))
-            args = line.split(",")[: len(ARGUMENT_NAMES[family])]
+            family = next(k.key for k in ALL_KINDS if k.key != "w" and header.startswith(",".join(k.arguments) + ","))
+            args = line.split(",")[: len(kind(family).arguments)]
         elif path.endswith(".json") and isinstance(line, list):
             family = json.loads(want_text)["family"]
             family = family_record(family).kind if family in FAMILY_KEYS else family  # the kind its table holds
-            args = line[: len(ARGUMENT_NAMES[family])]
+            args = line[: len(kind(family).arguments)]
         else:
             return ""
         return f", value {symbol_text(family, kind(family).parse(tuple(args), 10**6))}"

@@ -20,10 +20,9 @@ import re
 from pathlib import Path
 
 from . import symmetry
-from .coefficients import parse_arguments
 from .errors import TablegenError
 from .families import FAMILIES
-from .kinds import ALL_KINDS
+from .kinds import ALL_KINDS, kind
 from .notation import symbol_text
 from .recipe import MAX_DIGITS
 from .render.data import TABLE_FORMAT
@@ -41,9 +40,8 @@ def signed_square_text(value: Surd) -> str:
 
 __all__ = ["check_values"]
 
-#: Every kind a site may hold (numbers, then the tabulated functions), from the records.
-ARGUMENT_NAMES = {k.key: k.arguments for k in ALL_KINDS}
-DOUBLED = {k.key: k.doubled for k in ALL_KINDS}
+#: kind key -> its argument names, for every kind a site may hold (numbers, then the tabulated functions)
+ARGUMENTS_OF_KIND = {k.key: k.arguments for k in ALL_KINDS}
 #: The family key a data file's rows count under in the manifest, by the kind they hold ("d" -> "rotation").
 _FAMILY_OF_KIND = {f.kind: f.key for f in reversed(FAMILIES)}
 _TABLE_KIND = {f.key: f.kind for f in FAMILIES}  # a JSON table names its family; its rows hold that family's kind
@@ -62,8 +60,9 @@ class _Engine:
         key = (family, args)
         hit = self._cache.get(key)
         if hit is None:
-            t = parse_arguments(family, args, max_j=10**6)
-            hit = (t, DOUBLED[family](*t))
+            k = kind(family)
+            t = k.parse(tuple(args), 10**6)
+            hit = (t, k.doubled(*t))
             self._cache[key] = hit
         return hit
 
@@ -157,7 +156,7 @@ class _Checker:
                 self.problem(f"{where}: malformed symmetry form {str(form)[:60]}")
                 continue
             try:
-                tf = parse_arguments(family, form[0].split(" "), max_j=10**6)
+                tf = kind(family).parse(tuple(form[0].split(" ")), 10**6)
             except (TablegenError, ValueError, TypeError):
                 self.problem(f"{where}: symmetry form {form[0][:60]!r} cannot be read")
                 continue
@@ -181,7 +180,7 @@ class _Checker:
         if family is None or not {"exact", "decimal", *parts_columns} <= set(head):
             self.problem(f"{path}: unrecognised header {','.join(head)[:60]}")
             return
-        n = len(ARGUMENT_NAMES[family])
+        n = len(ARGUMENTS_OF_KIND[family])
         ie, idec = head.index("exact"), head.index("decimal")
         iparts = [head.index(c) for c in parts_columns]
         iw = head.index("w") if "w" in head else None
@@ -189,7 +188,7 @@ class _Checker:
         # kinds tabulated at the same arguments: columns <kind>, <kind>_sign, _p, _q (or _square), _decimal
         beside = [(other, head.index(other), [head.index(f"{other}_{c}") for c in parts_columns],
                    head.index(f"{other}_decimal")) for other in head
-                  if other in ARGUMENT_NAMES and {f"{other}_{c}" for c in (*parts_columns, "decimal")} <= set(head)]
+                  if other in ARGUMENTS_OF_KIND and {f"{other}_{c}" for c in (*parts_columns, "decimal")} <= set(head)]
         keys = []
         for i, row in enumerate(rows[1:], 2):
             if len(row) != len(head):
@@ -222,7 +221,7 @@ class _Checker:
             return
         family, rows = doc.get("family"), doc.get("rows")
         family = _TABLE_KIND.get(family, family) if isinstance(family, str) else family  # the kind its rows hold
-        if not isinstance(family, str) or family not in ARGUMENT_NAMES:
+        if not isinstance(family, str) or family not in ARGUMENTS_OF_KIND:
             self.problem(f"{path}: unknown family {str(family)[:60]!r}")
             return
         if not isinstance(rows, list):
@@ -233,7 +232,7 @@ class _Checker:
             if not isinstance(columns, list) or not all(isinstance(c, str) for c in columns):
                 self.problem(f"{path}: 'columns' is not a list of column names")
                 return
-            rows = [_named_row(columns, row, len(ARGUMENT_NAMES[family])) for row in rows]
+            rows = [_named_row(columns, row, len(ARGUMENTS_OF_KIND[family])) for row in rows]
         keys = []
         for i, row in enumerate(rows, 1):
             where = f"{path} row {i}"
@@ -255,7 +254,7 @@ class _Checker:
                 else:
                     self.problem(f"{where}: malformed W {str(w)[:60]}")
             for other, forms in row.items():  # kinds at the same arguments: {"exact", "sign", "p", "q", "decimal"}
-                if other in ARGUMENT_NAMES and isinstance(forms, dict) and "exact" in forms:
+                if other in ARGUMENTS_OF_KIND and isinstance(forms, dict) and "exact" in forms:
                     parts = (("square", forms.get("square")) if "square" in forms
                              else ("parts", [forms.get("sign"), forms.get("p"), forms.get("q")]))
                     self.value(where, other, args, forms.get("exact"), parts, forms.get("decimal"))
@@ -282,10 +281,10 @@ class _Checker:
                 continue
             parts = line.split(" ")
             family = parts[0]
-            if family not in ARGUMENT_NAMES:
+            if family not in ARGUMENTS_OF_KIND:
                 self.problem(f"values.txt line {i}: unknown family {family[:60]!r}")
                 continue
-            n = len(ARGUMENT_NAMES[family])
+            n = len(ARGUMENTS_OF_KIND[family])
             parts = line.split(" ", n + 1)  # the value is the rest of the line (a function's text may hold spaces)
             if len(parts) != n + 2:
                 self.problem(f"values.txt line {i}: expected {n} arguments and a value")
@@ -327,7 +326,7 @@ def _cut(value: object, n: int = 60) -> str:
 
 
 def _family_of_columns(columns: list[str]) -> str | None:
-    for family, names in ARGUMENT_NAMES.items():
+    for family, names in ARGUMENTS_OF_KIND.items():
         if columns[: len(names)] == list(names) and family != "w":
             return family
     return None
@@ -415,6 +414,6 @@ def _named_row(columns: list[str], row: object, n: int) -> object:
         w_args = cell["w"]
         named["w"] = {"args": w_args.split(" ") if isinstance(w_args, str) else w_args, "sign": cell.get("w_sign")}
     for other in columns:  # a kind tabulated at the same arguments: columns <kind>, <kind>_sign, _p, _q, _decimal
-        if other in ARGUMENT_NAMES and f"{other}_decimal" in cell:
+        if other in ARGUMENTS_OF_KIND and f"{other}_decimal" in cell:
             named[other] = {"exact": cell[other], **{k: cell.get(f"{other}_{k}") for k in ("sign", "p", "q", "decimal")}}
     return named

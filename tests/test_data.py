@@ -23,8 +23,8 @@ from sympy.physics.wigner import clebsch_gordan, racah, wigner_3j, wigner_6j, wi
 
 from tablegen.build import family_counts
 from tablegen.buildinfo import BuildMeta
-from tablegen.coefficients import DOUBLED
 from tablegen.compute import compute_values
+from tablegen.kinds import kind
 from tablegen.output import sha256_hex
 from tablegen.plan import plan_site
 from tablegen.recipe import load_recipe, recipe_from_mapping
@@ -157,7 +157,7 @@ def test_csv_rows_match_engine_and_sympy(request, which: str) -> None:
             args, exact, decimal = row[:n], row[n], row[n + 4]
             sign, p, q = (int(x) for x in row[n + 1 : n + 4])
             assert [Fraction(a) * 2 for a in args] == list(entry.key)  # quantum numbers
-            engine = DOUBLED[table.family](*entry.key)
+            engine = kind(table.family).doubled(*entry.key)
             assert exact == str(engine)
             ref = _reference(table.family, args)
             assert (_parse_exact(exact) == _signed_square(ref)) if ref else exact == "0", (table.id, row)
@@ -220,11 +220,11 @@ def test_json_is_valid_and_matches_csv(data: Data) -> None:
             if table.family in ("6j", "9j"):
                 members = row[header.index("forms") + 1 :][-1]
                 assert len(members) == len(entry.members) == int(csv_row[n + 5]) == row[n + 5]
-                key_value = DOUBLED[table.family](*entry.key)
+                key_value = kind(table.family).doubled(*entry.key)
                 for form, sign in members:
                     member = [int(Fraction(x) * 2) for x in form.split()]
                     # every listed form equals sign * this symbol (Regge 1958/1959 symmetries)
-                    assert DOUBLED[table.family](*member) == key_value * sign
+                    assert kind(table.family).doubled(*member) == key_value * sign
             if table.family == "6j":
                 iw = header.index("w")
                 assert [row[iw], str(row[iw + 1])] == csv_row[iw : iw + 2] and type(row[iw + 1]) is int
@@ -259,7 +259,7 @@ def test_values_txt_one_sorted_line_per_value(data: Data) -> None:
     assert len(keys) == len(set(keys)) == len(data.book)
     assert keys == sorted(keys, key=lambda fk: (_ORDER[fk[0]], fk[1]))
     for family, key, exact in lines:
-        assert exact == str(DOUBLED[family](*key))
+        assert exact == str(kind(family).doubled(*key))
     # every tabulated value and every W form is in it, with the same exact text
     present = {(f, k): e for f, k, e in lines}
     for table in data.plan.tables:

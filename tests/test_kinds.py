@@ -1,5 +1,5 @@
 """The kind records: one list, each record consistent with itself and with the
-public functions; the one 6j <-> W mapping; the compatibility views.
+public functions; the one 6j <-> W mapping; the registry loading kinds when asked.
 
 W(a b c d; e f) = (-1)**(a+b+c+d) {a b e; d c f} (Racah 1942, as in Edmonds
 1957, eq. 6.2.13; equation number from memory).
@@ -7,7 +7,10 @@ W(a b c d; e f) = (-1)**(a+b+c+d) {a b e; d c f} (Racah 1942, as in Edmonds
 
 from __future__ import annotations
 
+import importlib
 import itertools
+import subprocess
+import sys
 from fractions import Fraction
 
 import pytest
@@ -100,9 +103,24 @@ def test_triad_predicate():
         assert is_triad(a, b, c) == is_triad(b, c, a) == is_triad(c, b, a)
 
 
-def test_compatibility_views_come_from_the_records():
-    assert coefficients.KINDS == KIND_KEYS
-    assert coefficients.ARGUMENT_NAMES == {k.key: k.arguments for k in KINDS}
-    assert coefficients.DOUBLED == {k.key: k.doubled for k in KINDS}
-    assert coefficients.parse_arguments("6j", (1, 1, 1, 1, 1, 1)) == (2,) * 6
+def test_the_registry_names_each_record_by_its_own_key_and_loads_kinds_when_asked():
+    # a lookup imports the module of its kind only (start-up of `tablegen value`)
+    from tablegen.kinds.registry import KIND_PLACES
+
+    assert tuple(key for key, _, _ in KIND_PLACES) == KIND_KEYS
+    for key, module, name in KIND_PLACES:
+        assert kind(key).key == key and kind(key) is getattr(importlib.import_module(f"tablegen.kinds.{module}"), name)
+    code = (
+        "import sys; from tablegen.kinds import kind; kind('6j');"
+        "print(sorted(m for m in sys.modules if m.startswith('tablegen.kinds.')))"
+    )
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=60)
+    assert done.returncode == 0, done.stderr
+    loaded = set(eval(done.stdout))
+    assert "tablegen.kinds.sixj" in loaded
+    assert not loaded & {"tablegen.kinds.ninej", "tablegen.kinds.lsjj", "tablegen.kinds.recoupling", "tablegen.kinds.states"}
+
+
+def test_why_zero_doubled_names_the_rule():
+    # all m zero and j1 + j2 + j3 odd: the 3j vanishes (common practice, no source)
     assert coefficients.why_zero_doubled("3j", (2, 2, 2, 0, 0, 0)) == "parity: all m are 0 and j1 + j2 + j3 is odd"

@@ -23,7 +23,10 @@ function-valued kinds), ``recouple`` (recouple.py), ``lsjj`` (lsjj.py) and
 from __future__ import annotations
 
 import sys
-from typing import Callable
+
+TYPE_CHECKING = False  # not typing's: importing typing would slow every lookup's start-up
+if TYPE_CHECKING:  # pragma: no cover
+    from collections.abc import Callable
 
 __all__ = ["Command", "COMMANDS", "command", "emit", "warn", "JSON_FORMAT", "route", "SUMMARIES"]
 
@@ -45,10 +48,8 @@ class Command:
         self.help = help
 
     def load(self):
-        """The implementing module (imported now, not before)."""
-        from importlib import import_module
-
-        return import_module(self.module)
+        """The implementing module (imported now, not before; __import__, as importlib costs start-up time)."""
+        return __import__(self.module, fromlist=["run"])
 
 
 COMMANDS: tuple[Command, ...] = (

@@ -26,17 +26,11 @@ DESCRIPTION = (
 )
 
 
-def _kinds():
-    from ..kinds import KINDS
-
-    return KINDS
-
-
 def description() -> str:
     """DESCRIPTION filled in from the kind records."""
+    from ..kinds import KINDS as kinds  # every kind module: only for --help
     from ..limits import ENGINE_MAX_J
 
-    kinds = _kinds()
     return DESCRIPTION.format(
         kinds=", ".join(k.key for k in kinds),
         orders="; ".join(f"{k.key} {' '.join(k.arguments)}" for k in kinds),
@@ -60,13 +54,14 @@ def add_arguments(parser) -> None:
 
 
 def kind_of(text: str):
-    """The Kind record named ``text``, or OptionError naming KIND and the choices."""
+    """The Kind record named ``text`` (only its module is imported), or OptionError naming KIND and the choices."""
+    from ..kinds import KIND_KEYS, kind
+
+    if text in KIND_KEYS:
+        return kind(text)
     from ..errors import OptionError
 
-    for k in _kinds():
-        if k.key == text:
-            return k
-    raise OptionError("KIND", text, f"must be one of {', '.join(k.key for k in _kinds())}")
+    raise OptionError("KIND", text, f"must be one of {', '.join(KIND_KEYS)}")
 
 
 def run(ns) -> int:

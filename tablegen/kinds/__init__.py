@@ -8,7 +8,8 @@ zero, how the symbol is written (as data, for renderers), and its symmetry
 class.  Code outside this package loops over :data:`KINDS` or looks a kind up
 with :func:`kind`; it never asks "is this the 6j?".
 
-Nothing registers itself on import: the list below is the registry.
+Nothing registers itself on import: the list in registry.py is the registry; a kind's
+module is imported when the kind is first asked for (start-up of a one-value lookup).
 """
 
 from __future__ import annotations
@@ -153,10 +154,16 @@ class Kind(_Record):
         return self.doubled(*self.parse(values, max_j))
 
 
-from .registry import KINDS  # noqa: E402  (the explicit list, built from the kind modules)
+from .registry import KIND_PLACES  # noqa: E402  (the explicit list: key, module, record name)
 
-KIND_KEYS = tuple(k.key for k in KINDS)
-_BY_KEY = {k.key: k for k in KINDS}
+KIND_KEYS = tuple(key for key, _, _ in KIND_PLACES)
+_BY_KEY: dict = {}  # key -> Kind, filled as kinds are asked for
+_PLACE = {key: (module, name) for key, module, name in KIND_PLACES}
+
+
+def _numbers() -> tuple:
+    """Every kind whose values are numbers, in registry order (imports every kind module)."""
+    return tuple(kind(key) for key in KIND_KEYS)
 
 
 def _all_kinds() -> tuple:
@@ -167,10 +174,14 @@ def _all_kinds() -> tuple:
     """
     from .registry import tabulated_functions
 
-    return KINDS + tabulated_functions()
+    return _numbers() + tabulated_functions()
 
 
-def __getattr__(name: str):  # ALL_KINDS, ALL_KIND_KEYS: module attributes made on first use
+def __getattr__(name: str):
+    """KINDS, ALL_KINDS, ALL_KIND_KEYS: module attributes made on first use (they import kind modules)."""
+    if name == "KINDS":
+        globals()["KINDS"] = records = _numbers()
+        return records
     if name == "ALL_KINDS":
         return _all_kinds()
     if name == "ALL_KIND_KEYS":
@@ -179,13 +190,19 @@ def __getattr__(name: str):  # ALL_KINDS, ALL_KIND_KEYS: module attributes made 
 
 
 def kind(key: str) -> Kind:
-    """The Kind named ``key``, or ValueError naming the argument and the choices."""
+    """The Kind named ``key`` (only its module is imported), or ValueError naming the argument and the choices."""
     try:
         return _BY_KEY[key]
     except (KeyError, TypeError):
         pass
+    place = _PLACE.get(key) if isinstance(key, str) else None
+    if place is not None:
+        module = __import__(f"{__name__}.{place[0]}", fromlist=[place[1]])  # not importlib: start-up time
+        record = getattr(module, place[1])
+        _BY_KEY[key] = record
+        return record
     every = _all_kinds()
-    for k in every[len(KINDS):]:
+    for k in every[len(KIND_KEYS):]:
         if k.key == key:
             return k
     raise ValueError(f"argument kind = {key!r}: must be one of {', '.join(k.key for k in every)}") from None

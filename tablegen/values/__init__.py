@@ -19,10 +19,18 @@ power of pi) plugs in without touching them:
 
 from __future__ import annotations
 
-from .exact_sum import ExactSum
 from .surd import Surd
 
 __all__ = ["Surd", "ExactSum", "phase"]
+
+
+def __getattr__(name: str):
+    """ExactSum on first use: it needs fractions, which a one-value lookup never does (start-up time)."""
+    if name == "ExactSum":
+        from .exact_sum import ExactSum
+
+        return ExactSum
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
 
 
 def phase(x: object) -> int:

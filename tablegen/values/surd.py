@@ -17,24 +17,33 @@ checksummed files): change them only on purpose.
 
 from __future__ import annotations
 
-import numbers
-from fractions import Fraction
 from math import gcd, isqrt
 
 from .. import intmath
 
 __all__ = ["Surd"]
 
+TYPE_CHECKING = False
+if TYPE_CHECKING:  # pragma: no cover
+    from fractions import Fraction
 
-def _as_fraction(x: object) -> Fraction | None:
+# numbers and fractions (with the decimal module it loads) are imported where they are used,
+# not here: a one-value lookup builds and prints a Surd without either (start-up time).
+
+
+def _as_fraction(x: object) -> "Fraction | None":
     """int, Fraction or any numbers.Rational (sympy's too) as a Fraction."""
+    import numbers
+
+    if not isinstance(x, numbers.Rational):  # int, Fraction and sympy's Rational all are
+        return None
+    from fractions import Fraction
+
     if isinstance(x, Fraction):
         return x
     if isinstance(x, int):
         return Fraction(x)
-    if isinstance(x, numbers.Rational):
-        return Fraction(int(x.numerator), int(x.denominator))
-    return None
+    return Fraction(int(x.numerator), int(x.denominator))
 
 
 class Surd:
@@ -109,12 +118,16 @@ class Surd:
         """Denominator of the (unsigned) square."""
         return self._q
 
-    def squared(self) -> Fraction:
+    def squared(self) -> "Fraction":
         """The square of the value, p/q >= 0, as a Fraction (the sign is ``sign``)."""
+        from fractions import Fraction
+
         return Fraction(self._p, self._q) if self._sign else Fraction(0)
 
-    def _order_value(self) -> Fraction:
+    def _order_value(self) -> "Fraction":
         """sign * p/q: strictly increasing in the value, for ordering without roots."""
+        from fractions import Fraction
+
         return Fraction(self._sign * self._p, self._q)
 
     def is_rational(self) -> bool:
@@ -123,8 +136,10 @@ class Surd:
         rp, rq = isqrt(p), isqrt(q)
         return rp * rp == p and rq * rq == q
 
-    def as_fraction(self) -> Fraction:
+    def as_fraction(self) -> "Fraction":
         """The value as a Fraction; ValueError if it is irrational."""
+        from fractions import Fraction
+
         if not self.is_rational():
             raise ValueError(f"{self} is irrational")
         return Fraction(self._sign * isqrt(self._p), isqrt(self._q))
@@ -135,6 +150,8 @@ class Surd:
             return (self._sign, self._p, self._q) == (other._sign, other._p, other._q)
         if isinstance(other, float):
             # a finite float is an exact binary rational; compare exactly
+            from fractions import Fraction
+
             return other == other and abs(other) != float("inf") and self == Fraction(other)
         f = _as_fraction(other)
         if f is None:
@@ -156,6 +173,8 @@ class Surd:
         if isinstance(other, float):
             if other != other or abs(other) == float("inf"):
                 return self._order_value(), other
+            from fractions import Fraction
+
             other = Fraction(other)
         f = _as_fraction(other)
         if f is None:
