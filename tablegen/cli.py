@@ -166,21 +166,9 @@ def _parser_classes():
                 self.description = self.describe()
             return super().format_help()
 
-    class Formatter(argparse.HelpFormatter):
-        """argparse's help layout, measuring the terminal without importing shutil (start-up time)."""
+    from .commands import help_formatter
 
-        def __init__(self, prog: str, **kwargs) -> None:
-            if kwargs.get("width") is None:
-                import os
-
-                try:
-                    columns = int(os.environ.get("COLUMNS", "0")) or os.get_terminal_size(1).columns
-                except (OSError, ValueError):
-                    columns = 80
-                kwargs["width"] = max(columns, 40) - 2
-            super().__init__(prog, **kwargs)
-
-    return Parser, Formatter
+    return Parser, help_formatter()
 
 
 def _command_parser(c, prog: str):

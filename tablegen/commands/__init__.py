@@ -28,7 +28,7 @@ TYPE_CHECKING = False  # not typing's: importing typing would slow every lookup'
 if TYPE_CHECKING:  # pragma: no cover
     from collections.abc import Callable
 
-__all__ = ["Command", "COMMANDS", "command", "emit", "warn", "JSON_FORMAT", "route", "SUMMARIES"]
+__all__ = ["Command", "COMMANDS", "command", "emit", "warn", "JSON_FORMAT", "route", "SUMMARIES", "help_formatter"]
 
 #: True when cli.main runs as the program (it exits afterwards); set by cli.main.
 AS_PROGRAM = False
@@ -75,6 +75,36 @@ def emit(text: str) -> None:
 def warn(text: str) -> None:
     """One warning line on stderr (the command still succeeds)."""
     print(f"tablegen: warning: {text}", file=sys.stderr)
+
+
+_FORMATTER = None
+
+
+def help_formatter():
+    """argparse's help layout, measuring the terminal without importing shutil (start-up time).
+
+    Every parser of the command line uses it: argparse builds a formatter for
+    each option it adds, and its own would import shutil (and with it bz2 and
+    lzma) to ask the terminal's width.
+    """
+    global _FORMATTER
+    if _FORMATTER is None:
+        import argparse
+
+        class Formatter(argparse.HelpFormatter):
+            def __init__(self, prog: str, **kwargs) -> None:
+                if kwargs.get("width") is None:
+                    import os
+
+                    try:
+                        columns = int(os.environ.get("COLUMNS", "0")) or os.get_terminal_size(1).columns
+                    except (OSError, ValueError):
+                        columns = 80
+                    kwargs["width"] = max(columns, 40) - 2
+                super().__init__(prog, **kwargs)
+
+        _FORMATTER = Formatter
+    return _FORMATTER
 
 
 #: (command, one-line help) for the main parser's list of commands.

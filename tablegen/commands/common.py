@@ -25,6 +25,12 @@ class CommandLineError(TablegenError, ValueError):
 class OneLineParser(argparse.ArgumentParser):
     """argparse whose usage errors raise CommandLineError (no usage dump) instead of exiting."""
 
+    def __init__(self, *args, **kwargs) -> None:
+        from . import help_formatter
+
+        kwargs.setdefault("formatter_class", help_formatter())
+        super().__init__(*args, **kwargs)
+
     def error(self, message: str):  # type: ignore[override]
         raise CommandLineError(f"{self.prog}: {message}")
 
