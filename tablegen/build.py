@@ -21,7 +21,7 @@ from typing import Callable, Iterable, Iterator
 
 from . import RELEASE_YEAR, __version__
 from .buildinfo import BuildMeta
-from .compute import ValueBook, compute_values
+from .compute import ComputedValues, compute_values
 from .errors import RecipeError
 from .linkcheck import LinkCheck
 from .output import MANIFEST, MANIFEST_FORMAT, SUMS, Staging, check_target, seal, sha256_hex
@@ -67,7 +67,7 @@ def family_counts(plan: SitePlan) -> tuple[tuple[str, int], ...]:
     return tuple((f.key, counts.get(f.key, 0)) for f in plan.families)
 
 
-def render_outputs(plan: SitePlan, book: ValueBook) -> tuple[BuildMeta, Iterator[tuple[str, bytes]]]:
+def render_outputs(plan: SitePlan, book: ComputedValues) -> tuple[BuildMeta, Iterator[tuple[str, bytes]]]:
     """The build facts and every (path, bytes) of the site in write order (no manifest, no checksums)."""
     from .render.data import canonical_values, render_data
     from .render.html import render_html

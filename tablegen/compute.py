@@ -1,8 +1,8 @@
 """Compute every value a plan needs, with its text forms, on all cores.
 
-The result is a ValueBook: (kind key, doubled key) -> Shown, for each
-table's kind and for the companions its family record names (Racah W beside
-a 6j).  Shown carries the
+The result, :data:`ComputedValues`, maps (kind key, doubled key) to a
+:class:`FormattedValue` for each table's kind and for the companions its
+family record names (Racah W beside a 6j).  A FormattedValue carries the
 exact value and each text form the renderers print (exact text, the parts
 sign, p, q of sign*sqrt(p/q), decimal, LaTeX in the recipe's style), so that
 renderers only format.
@@ -24,7 +24,7 @@ from .plan import SitePlan
 from .values import Surd
 
 __all__ = [
-    "Shown", "ValueBook", "compute_values", "wanted_keys", "show", "worker_count", "ComputeError",
+    "FormattedValue", "ComputedValues", "compute_values", "wanted_keys", "format_value", "worker_count", "ComputeError",
 ]
 
 #: Below this many values one process is faster than starting a pool.
@@ -33,7 +33,7 @@ CHUNK = 2_000
 
 
 @dataclass(frozen=True, slots=True)
-class Shown:
+class FormattedValue:
     """A value and the text forms shown for it."""
 
     value: Surd
@@ -53,10 +53,16 @@ class ComputeError(TablegenError):
     """Computing could not finish (a worker process died); nothing was written."""
 
 
-ValueBook = dict[tuple[str, tuple[int, ...]], Shown]
+#: Every value of a build: (kind key, doubled arguments) -> its FormattedValue.
+ComputedValues = dict[tuple[str, tuple[int, ...]], FormattedValue]
+
+# The old names, only for render/data.py, which is being rewritten on another branch:
+# remove both when it imports FormattedValue and ComputedValues.
+Shown = FormattedValue
+ValueBook = ComputedValues
 
 
-def show(value: Surd, digits: int, style: str, zero_rule: object = None) -> Shown:
+def format_value(value: Surd, digits: int, style: str, zero_rule: object = None) -> FormattedValue:
     """All text forms of one value.
 
     A value that is a function (a rotation function d(beta) as a trigonometric
@@ -64,7 +70,7 @@ def show(value: Surd, digits: int, style: str, zero_rule: object = None) -> Show
     left empty, the exact text and the LaTeX are still written.
     """
     decimal = getattr(value, "decimal", None)
-    return Shown(
+    return FormattedValue(
         value=value,
         exact=str(value),
         parts=(value.sign, value.p, value.q) if isinstance(value, Surd) else None,
@@ -88,13 +94,13 @@ def wanted_keys(plan: SitePlan) -> list[tuple[str, tuple[int, ...]]]:
     return list(out)
 
 
-def _compute_chunk(args: tuple[list[tuple[str, tuple[int, ...]]], int, str]) -> list[Shown]:
+def _compute_chunk(args: tuple[list[tuple[str, tuple[int, ...]]], int, str]) -> list[FormattedValue]:
     keys, digits, style = args
     out = []
     for k, key in keys:
         record = kind(k)
         value = record.doubled(*key)
-        out.append(show(value, digits, style, record.zero_rule(key) if value == 0 else None))
+        out.append(format_value(value, digits, style, record.zero_rule(key) if value == 0 else None))
     return out
 
 
@@ -123,13 +129,13 @@ def compute_values(
     plan: SitePlan,
     jobs: int | None = None,
     progress: Callable[[int, int], None] | None = None,
-) -> ValueBook:
-    """The ValueBook for a plan, computed in up to ``jobs`` processes (see worker_count)."""
+) -> ComputedValues:
+    """Every value of a plan with its text forms, computed in up to ``jobs`` processes (see worker_count)."""
     keys = wanted_keys(plan)
     digits, style = plan.recipe.digits, plan.recipe.latex_style
     jobs = worker_count(jobs, len(keys))
     chunks = [keys[i : i + CHUNK] for i in range(0, len(keys), CHUNK)]
-    results: list[Shown] = []
+    results: list[FormattedValue] = []
     done = 0
     run = _run_serial if jobs <= 1 or len(chunks) <= 1 else _run_workers
     with closing(run(chunks, digits, style, jobs)) as stream:  # workers end here, whatever happens
@@ -141,7 +147,7 @@ def compute_values(
     return dict(zip(keys, results))
 
 
-def _run_serial(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
+def _run_serial(chunks, digits: int, style: str, jobs: int) -> Iterator[list[FormattedValue]]:
     for c in chunks:
         yield _compute_chunk((c, digits, style))
 
@@ -171,7 +177,7 @@ def _worker_died(p) -> ComputeError:
     return ComputeError(f"a worker process ended unexpectedly (exit status {p.exitcode}); nothing was written")
 
 
-def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[Shown]]:
+def _run_workers(chunks, digits: int, style: str, jobs: int) -> Iterator[list[FormattedValue]]:
     """Chunk i is computed by worker i % jobs and read back in chunk order.
 
     Plain processes and one pipe each, no pool: the main process runs no helper

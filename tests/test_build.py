@@ -18,7 +18,7 @@ import pytest
 
 from tablegen import compute
 from tablegen.build import build, family_counts
-from tablegen.compute import Shown, compute_values
+from tablegen.compute import FormattedValue, compute_values
 from tablegen.plan import plan_site
 from tablegen.recipe import recipe_from_mapping
 from tablegen.render.data import canonical_values
@@ -131,9 +131,9 @@ def test_digest_follows_a_single_value() -> None:
     old = book[key]
     assert old.value == Surd(1, 1, 3)  # 1/sqrt(3), the J = 0 state of two spin 1 -- common practice
     changed = dict(book)
-    changed[key] = Shown(Surd(1, 1, 2), "sqrt(1/2)", (1, 1, 2), old.decimal, old.tex)
+    changed[key] = FormattedValue(Surd(1, 1, 2), "sqrt(1/2)", (1, 1, 2), old.decimal, old.tex)
     assert canonical_values(changed) != before
-    changed[key] = Shown(-old.value, "-" + old.exact, (-1,) + old.parts[1:], old.decimal, old.tex)
+    changed[key] = FormattedValue(-old.value, "-" + old.exact, (-1,) + old.parts[1:], old.decimal, old.tex)
     assert canonical_values(changed) != before  # a sign alone
     assert canonical_values(dict(book)) == before
 

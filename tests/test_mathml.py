@@ -15,7 +15,7 @@ from itertools import product
 import pytest
 
 from tablegen.coefficients import cg2, ninej2, racah_w2, sixj2, threej2
-from tablegen.compute import show
+from tablegen.compute import format_value
 from tablegen.kinds import kind
 from tablegen.plan import symbols_in_range
 from tablegen.render import mathml
@@ -102,7 +102,7 @@ def _all_values():
 def test_value_mathml_reads_back_as_the_exact_value(style):
     checked = nonzero = 0
     for family, key, value in _all_values():
-        shown = show(value, 6, style)
+        shown = format_value(value, 6, style)
         markup = mathml.value_mathml(shown)
         assert value_of(markup) == value, (family, key, markup)
         assert "<msqrt>" in markup or value.is_rational(), (family, key, markup)
@@ -142,16 +142,16 @@ def test_sample_agrees_with_sympy_wigner():
         ((3, -1, 2, 2, 3, 1), lambda t: wigner.clebsch_gordan(r(t[0]), r(t[2]), r(t[4]), r(t[1]), r(t[3]), r(t[5]))),
     ]
     for key, ref in samples:
-        markup = mathml.value_mathml(show(cg2(*key), 8, "root"))
+        markup = mathml.value_mathml(format_value(cg2(*key), 8, "root"))
         exact = ref(key)
         assert value_of(markup) == Surd.from_square(Fraction(int((exact**2).p), int((exact**2).q)), 1 if exact > 0 else -1)
     for key in [(2, 2, 2, 2, 2, 2), (4, 2, 2, 3, 3, 3), (3, 3, 2, 3, 3, 4)]:
         exact = wigner.wigner_6j(*(r(t) for t in key))
-        markup = mathml.value_mathml(show(sixj2(*key), 8, "rational"))
+        markup = mathml.value_mathml(format_value(sixj2(*key), 8, "rational"))
         assert value_of(markup) == Surd.from_square(Fraction(int((exact**2).p), int((exact**2).q)), 1 if exact > 0 else -1)
     for key in [(2, 2, 2, 2, 2, 2, 2, 2, 0), (1, 1, 2, 1, 1, 2, 2, 2, 2)]:
         exact = wigner.wigner_9j(*(r(t) for t in key))
-        markup = mathml.value_mathml(show(ninej2(*key), 8, "root"))
+        markup = mathml.value_mathml(format_value(ninej2(*key), 8, "root"))
         assert value_of(markup) == Surd.from_square(Fraction(int((exact**2).p), int((exact**2).q)), 1 if exact > 0 else -1)
 
 

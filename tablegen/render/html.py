@@ -2,7 +2,7 @@
 
 ``render_html`` walks the plan's pages in order and yields (path, bytes).
 Everything a page shows comes from the plan (layout, anchors, links), the
-family records (titles, labels, conventions) and the ValueBook (each value's
+family records (titles, labels, conventions) and the computed values (each value's
 text forms); this module only chooses which form to print and turns site
 paths into links relative to the page.  Family pages are made by the page
 builder of their layout (html_layouts.py); values are written as MathML at
@@ -18,7 +18,7 @@ from typing import Iterator
 from markupsafe import Markup
 
 from ..buildinfo import BuildMeta, bibtex, plain_citation
-from ..compute import Shown, ValueBook
+from ..compute import ComputedValues, FormattedValue
 from ..sitemodel import Page, SitePlan, Table
 from . import html_layouts
 from .env import html_environment, templates_dir
@@ -41,7 +41,7 @@ def asset_paths() -> tuple[str, ...]:
 class _Site:
     """What every page of one build shares."""
 
-    def __init__(self, plan: SitePlan, book: ValueBook, meta: BuildMeta) -> None:
+    def __init__(self, plan: SitePlan, book: ComputedValues, meta: BuildMeta) -> None:
         self.plan = plan
         self.book = book
         self.meta = meta
@@ -87,7 +87,7 @@ class _Site:
         )
         return text.encode("utf-8")
 
-    def shown(self, kind: str, key: tuple[int, ...]) -> Shown:
+    def shown(self, kind: str, key: tuple[int, ...]) -> FormattedValue:
         return self.book[(kind, key)]
 
     def files(self, page: Page, table: Table) -> list[dict]:
@@ -179,7 +179,7 @@ def _page(site: _Site, page: Page) -> bytes:
     return html_layouts.PAGES[site.plan.family(page.kind).layout.name](site, page)
 
 
-def render_html(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[tuple[str, bytes]]:
+def render_html(plan: SitePlan, book: ComputedValues, meta: BuildMeta) -> Iterator[tuple[str, bytes]]:
     """Every HTML page of the plan, then assets/style.css, assets/site.js and assets/data.js (the jump data)."""
     site = _Site(plan, book, meta)
     for page in plan.pages:

@@ -2,7 +2,7 @@
 
 One page builder per layout name (:data:`PAGES`) and one index builder
 (:data:`INDEX_PARTS`); both read only the plan, the family record and the
-ValueBook.  Every piece of MathML comes from mathml.py.  The page templates
+computed values.  Every piece of MathML comes from mathml.py.  The page templates
 are grid.html, classes.html and matrix.html; per-family prose is
 prose/<family key>.html (prose/default.html when a family has none).
 """

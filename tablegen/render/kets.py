@@ -11,7 +11,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Callable
 
-from ..compute import Shown
+from ..compute import FormattedValue
 from ..sitemodel import Entry, Section
 
 __all__ = ["KetTerm", "Expansion", "expansions"]
@@ -20,7 +20,7 @@ __all__ = ["KetTerm", "Expansion", "expansions"]
 @dataclass(frozen=True)
 class KetTerm:
     negative: bool
-    value: Shown
+    value: FormattedValue
     ket_text: str
     ket_tex: str
 
@@ -47,7 +47,7 @@ class Expansion:
         return f"{self.ket_tex} = " + " ".join(out)
 
 
-def expansions(layout, section: Section, shown: Callable[[Entry], Shown]) -> tuple[list[Expansion], list[Expansion]]:
+def expansions(layout, section: Section, shown: Callable[[Entry], FormattedValue]) -> tuple[list[Expansion], list[Expansion]]:
     """(rows written in column states, columns written in row states) of one matrix section."""
     params = section.params
     rows = [layout.row_ket(params, r) for r in section.rows]

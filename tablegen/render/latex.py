@@ -11,7 +11,7 @@ convention.  A sheet is a small document that prints the conventions and the
 build facts and ``\\input``s its fragment (they sit side by side in latex/);
 the booklet does the same for every table, so no table is written twice.
 
-Everything is formatting: values arrive as ``Shown`` text forms, quantum
+Everything is formatting: values arrive as ``FormattedValue`` text forms, quantum
 numbers are written with ``half``.  Output has no dates, so the bytes depend
 only on the plan, the values and the build facts.
 """
@@ -22,7 +22,7 @@ import posixpath
 from typing import Callable, Iterator
 
 from ..buildinfo import BuildMeta, bibtex, plain_citation
-from ..compute import Shown, ValueBook
+from ..compute import ComputedValues, FormattedValue
 from ..families import Family
 from ..kinds import Notation, kind
 from ..sitemodel import Entry, Section, SitePlan, Table
@@ -115,8 +115,8 @@ def _fragment_name(table: Table, document: str) -> str:
     return posixpath.relpath(table.tex, posixpath.dirname(document))
 
 
-def _lookup(book: ValueBook, kind_key: str) -> Callable[[Entry], Shown]:
-    def value(entry: Entry) -> Shown:
+def _lookup(book: ComputedValues, kind_key: str) -> Callable[[Entry], FormattedValue]:
+    def value(entry: Entry) -> FormattedValue:
         return book[(kind_key, entry.key)]
 
     return value
@@ -251,7 +251,7 @@ class _Helpers:
         )
 
 
-def render_latex(plan: SitePlan, book: ValueBook, meta: BuildMeta) -> Iterator[tuple[str, bytes]]:
+def render_latex(plan: SitePlan, book: ComputedValues, meta: BuildMeta) -> Iterator[tuple[str, bytes]]:
     """(path, bytes) for every fragment and sheet, then the booklet."""
     env = latex_environment()
     helpers = _Helpers(plan)

@@ -355,7 +355,7 @@ def value_inner(tex: str) -> str:
 
 
 def value_mathml(shown) -> str:
-    """<math> for a computed value (a compute.Shown), from its LaTeX in the recipe style."""
+    """<math> for a computed value (a compute.FormattedValue), from its LaTeX in the recipe style."""
     return tex_to_mathml(shown.tex)
 
 
