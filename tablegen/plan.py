@@ -17,7 +17,7 @@ from __future__ import annotations
 from .families import FAMILIES, Family
 from .layouts import symbols_in_range
 from .recipe import Recipe
-from .sitemodel import Entry, Link, Page, Section, SitePlan, Table, file_code
+from .sitemodel import Entry, Link, Page, Section, SitePlan, Table, half_for_file_name
 
 __all__ = [
     "Link",
@@ -27,7 +27,7 @@ __all__ = [
     "Page",
     "SitePlan",
     "plan_site",
-    "file_code",
+    "half_for_file_name",
     "symbols_in_range",
     "internal_targets",
 ]

@@ -2,8 +2,8 @@
 
 Pure data, shared by the planner (plan.py and the layouts) and the renderers.
 Paths are relative to the site root and use '/'.  Half-integers appear in file
-names in decimal form ("cg/1.5x2.html", :func:`file_code`) and in anchors as
-fractions ("J=5/2,M=-1/2,m1=1", :func:`half`).
+names in decimal form ("cg/j1-1.5-j2-1.html", :func:`half_for_file_name`) and in
+anchors as fractions ("J=5/2,M=-1/2,m1=1", :func:`half`).
 """
 
 from __future__ import annotations
@@ -18,13 +18,14 @@ if TYPE_CHECKING:  # pragma: no cover
     from .families import Family
     from .recipe import Recipe
 
-__all__ = ["Link", "Entry", "Section", "Table", "Page", "SitePlan", "file_code", "half", "table_files", "chain"]
+__all__ = ["Link", "Entry", "Section", "Table", "Page", "SitePlan", "half_for_file_name", "half", "table_files",
+           "chain"]
 
 #: spins.half_text, remembered: called for every anchor and label
 half = lru_cache(maxsize=4096)(half_text)
 
 
-def file_code(t: int) -> str:
+def half_for_file_name(t: int) -> str:
     """A doubled j as it appears in file names: 4 -> '2', 3 -> '1.5'."""
     return str(t // 2) if t % 2 == 0 else f"{t // 2}.5"
 

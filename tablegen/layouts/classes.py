@@ -19,7 +19,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Callable, Iterator
 
-from ..sitemodel import Entry, Link, Page, Section, Table, chain, file_code, half, table_files
+from ..sitemodel import Entry, Link, Page, Section, Table, chain, half, half_for_file_name, table_files
 from ..triads import is_triad
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -88,7 +88,7 @@ class ClassesLayout:
     def page_path(self, key: str, lead_name: str, lead: int, part: int = 1) -> str:
         """'6j/j1-3.html', then '6j/j1-3-part2.html' for a page split in parts."""
         tail = "" if part == 1 else f"-part{part}"
-        return f"{key}/{lead_name}-{file_code(lead)}{tail}.html"
+        return f"{key}/{lead_name}-{half_for_file_name(lead)}{tail}.html"
 
     @staticmethod
     def anchor(key: tuple[int, ...], groups: tuple[tuple[int, ...], ...]) -> str:
@@ -191,7 +191,7 @@ class ClassesLayout:
                     raise AssertionError(f"plan: section {anchor} twice on {path}")
                 sections.append(Section(title=f"{second} = {half(value)}", anchor=anchor, entries=tuple(entries),
                                         params=((second, value),)))
-            tid = f"{fam.key}-{first}-{file_code(lead)}" + ("" if part == 1 else f"-part{part}")
+            tid = f"{fam.key}-{first}-{half_for_file_name(lead)}" + ("" if part == 1 else f"-part{part}")
             in_parts = sum(1 for p in parts if p[0] == lead) > 1
             title = f"{fam.kind} symbols with {first} = {half(lead)}" + (f", part {part}" if in_parts else "")
             tables.append(Table(id=tid, family=fam.key, title=title, page=path, sections=tuple(sections),

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import TYPE_CHECKING, Callable
 
-from ..sitemodel import Entry, Link, Page, Section, Table, chain, file_code, half, table_files
+from ..sitemodel import Entry, Link, Page, Section, Table, chain, half, half_for_file_name, table_files
 
 if TYPE_CHECKING:  # pragma: no cover
     from ..families import Family
@@ -41,15 +41,15 @@ class GridLayout:
 
     # -- names (shared with the jump box through page_pattern / anchor_pattern) --
     def page_path(self, key: str, tj1: int, tj2: int, tk: int | None = None) -> str:
-        """'cg/j1-1-j2-0.5.html': both j named, in the file-name form of :func:`file_code`.
+        """'cg/j1-1-j2-0.5.html': both j named, in the file-name form of :func:`half_for_file_name`.
 
         A pair too large for one page (:meth:`split`) has a page per third j:
         'cg/j1-10-j2-10-J-7.html'; ``tk`` names it (the first one without it).
         """
         if not self.split(tj1, tj2):
-            return f"{key}/j1-{file_code(tj1)}-j2-{file_code(tj2)}.html"
+            return f"{key}/j1-{half_for_file_name(tj1)}-j2-{half_for_file_name(tj2)}.html"
         tk = tj1 + tj2 if tk is None else tk
-        return f"{key}/j1-{file_code(tj1)}-j2-{file_code(tj2)}-{self.third}-{file_code(tk)}.html"
+        return f"{key}/j1-{half_for_file_name(tj1)}-j2-{half_for_file_name(tj2)}-{self.third}-{half_for_file_name(tk)}.html"
 
     def split(self, tj1: int, tj2: int) -> bool:
         """Whether the pair holds more than page_cells values."""
@@ -113,7 +113,7 @@ class GridLayout:
     def _part(self, table: Table, section: Section) -> Table:
         """One section of a split pair as a table (and page) of its own."""
         tk = section.params[0][1]
-        tid = f"{table.id}-{self.third}-{file_code(tk)}"
+        tid = f"{table.id}-{self.third}-{half_for_file_name(tk)}"
         return Table(id=tid, family=table.family, title=f"{table.title}, {section.title}",
                      page=self.page_path(table.family, table.param("j1"), table.param("j2"), tk),
                      sections=(section,), params=table.params, kind=table.kind, **table_files(tid))
@@ -155,7 +155,7 @@ class GridLayout:
                 params=((self.third, tk),),
                 twin=f"{twin_page}#{tfam.layout.twin_anchor_pattern(tk, twin_sign, self.row)}" if tfam else None,
             ))
-        tid = f"{fam.key}-j1-{file_code(tj1)}-j2-{file_code(tj2)}"
+        tid = f"{fam.key}-j1-{half_for_file_name(tj1)}-j2-{half_for_file_name(tj2)}"
         return Table(
             id=tid,
             family=fam.key,

@@ -18,7 +18,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Callable, Iterable
 
-from ..sitemodel import Entry, Link, Page, Section, Table, chain, file_code, half, table_files
+from ..sitemodel import Entry, Link, Page, Section, Table, chain, half, half_for_file_name, table_files
 
 if TYPE_CHECKING:  # pragma: no cover
     from ..families import Family
@@ -97,7 +97,7 @@ class MatrixLayout:
         """'key/j1-1.5.html'; with two page parameters 'key/l1-1_l2-2.html'."""
         if not self.block:
             return f"{key}/all.html"
-        return f"{key}/" + "_".join(f"{n}-{file_code(v)}" for n, v in zip(self.block, values)) + ".html"
+        return f"{key}/" + "_".join(f"{n}-{half_for_file_name(v)}" for n, v in zip(self.block, values)) + ".html"
 
     @staticmethod
     def block_anchor(params: tuple[tuple[str, int], ...]) -> str:
@@ -192,7 +192,7 @@ class MatrixLayout:
                     params=block.params,
                     column_tex=block.column_tex,
                 ))
-            tid = f"{fam.key}-" + ("_".join(f"{n}-{file_code(v)}" for n, v in named) or "all")
+            tid = f"{fam.key}-" + ("_".join(f"{n}-{half_for_file_name(v)}" for n, v in named) or "all")
             words = ", ".join(f"{n} = {half(v)}" for n, v in named)
             if self.page_name:
                 words = f"{self.page_name(named)} ({words})"
