@@ -252,7 +252,8 @@ def test_jump_box_explains_instead_of_navigating(tab, family, values, message):
     assert tab.problems == []
 
 
-def _h(t: int) -> str:
+def _half_text(t: int) -> str:
+    """A doubled quantum number as written: 3 -> '3/2', 4 -> '2'."""
     return str(t // 2) if t % 2 == 0 else f"{t}/2"
 
 
@@ -260,7 +261,7 @@ def _ket_latex(section, r: int, book) -> str:
     """|(j1,j2) J,M> = c1 |j1,m1>|j2,m2> + ..., written independently of the site script."""
     tJ, tM = dict(section.params)["J"], section.rows[r]
     tj1, tj2 = section.entries[0].key[0], section.entries[0].key[2]
-    text = f"|({_h(tj1)},{_h(tj2)})\\,{_h(tJ)},{_h(tM)}\\rangle = "
+    text = f"|({_half_text(tj1)},{_half_text(tj2)})\\,{_half_text(tJ)},{_half_text(tM)}\\rangle = "
     first = True
     for entry in section.grid[r]:
         if entry is None or not book[("cg", entry.key)].value:
@@ -270,7 +271,7 @@ def _ket_latex(section, r: int, book) -> str:
         negative = shown.value < 0
         text += ("-" if negative else "") if first else (" - " if negative else " + ")
         text += "" if shown.tex_abs == "1" else shown.tex_abs + "\\,"
-        text += f"|{_h(tj1)},{_h(tm1)}\\rangle|{_h(tj2)},{_h(tm2)}\\rangle"
+        text += f"|{_half_text(tj1)},{_half_text(tm1)}\\rangle|{_half_text(tj2)},{_half_text(tm2)}\\rangle"
         first = False
     return text
 
@@ -430,7 +431,7 @@ def test_a_typed_9j_with_sign_minus_one_shows_its_own_value(clip_tab, site):
     canon, sign = ninej_canonical(*form)
     assert sign < 0 and canon != form
     clip_tab.open("index.html")
-    _type(clip_tab.page, "9j", [_h(x) for x in form])
+    _type(clip_tab.page, "9j", [_half_text(x) for x in form])
     _landed(clip_tab.page, *_class_place("9j", canon))
     _check_said(clip_tab, "9j", form)
     assert clip_tab.problems == []
@@ -443,7 +444,7 @@ def test_a_typed_w_with_sign_minus_one_shows_its_own_value(clip_tab, site):
 
     assert kind("w").doubled(a, b, c, d, e, f) == -kind("6j").doubled(a, b, e, d, c, f) != 0
     clip_tab.open("index.html")
-    _type(clip_tab.page, "w", [_h(x) for x in (a, b, c, d, e, f)])
+    _type(clip_tab.page, "w", [_half_text(x) for x in (a, b, c, d, e, f)])
     _landed(clip_tab.page, *_sixj_expected((a, b, e, d, c, f)))
     _check_said(clip_tab, "w", (a, b, c, d, e, f))
     assert clip_tab.problems == []

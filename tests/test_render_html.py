@@ -225,7 +225,7 @@ def test_cg_rows_are_written_as_ket_expansions(built, parsed):
     for table in plan.tables_of("cg"):
         page = parsed[table.page]
         text = files[table.page].decode("utf-8")
-        j1, j2 = (_h(v) for _, v in table.params)
+        j1, j2 = (_half_text(v) for _, v in table.params)
         assert f'data-j="{j1},{j2}"' in text  # what the script needs to write the LaTeX
         for section in table.sections:
             tJ = dict(section.params)["J"]
@@ -235,26 +235,28 @@ def test_cg_rows_are_written_as_ket_expansions(built, parsed):
                 item = item[: item.index("</li>")]
                 assert item.count("<math>") == page.math_in[anchor]
                 # the coupled state shows its coupling; product states are |j m>|j m> (issue 8)
-                assert f"<mtext>|({j1}, {j2}) {_m(tJ)}, {_m(tM)}⟩</mtext><mo>=</mo>" in item
+                assert f"<mtext>|({j1}, {j2}) {_shown_half(tJ)}, {_shown_half(tM)}⟩</mtext><mo>=</mo>" in item
                 terms = [e for e in section.grid[r] if e is not None and book[("cg", e.key)].value]
                 assert page.math_in[anchor] == len(terms) + 1
                 for e in terms:
                     tj1, tm1, tj2, tm2, _, _ = e.key
-                    assert f"|{_m(tj1)}, {_m(tm1)}⟩|{_m(tj2)}, {_m(tm2)}⟩</mtext>" in item, (anchor, e.key)
+                    assert f"|{_shown_half(tj1)}, {_shown_half(tm1)}⟩|{_shown_half(tj2)}, {_shown_half(tm2)}⟩</mtext>" in item, (anchor, e.key)
                 # the row header links to the expansion (the script finds the row this way)
                 assert text.count(f'<a href="#{anchor}">') == 1
 
 
-def _m(t: int) -> str:
-    return _h(t).replace("-", "−")
+def _shown_half(t: int) -> str:
+    """A doubled quantum number as a page shows it, with the typographic minus sign."""
+    return _half_text(t).replace("-", "−")
 
 
-def _h(t: int) -> str:
+def _half_text(t: int) -> str:
+    """A doubled quantum number as written: 3 -> '3/2', 4 -> '2'."""
     return str(t // 2) if t % 2 == 0 else f"{t}/2"
 
 
 def _braced(member) -> str:
-    return "{" + "; ".join(" ".join(_h(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
+    return "{" + "; ".join(" ".join(_half_text(x) for x in member[i : i + 3]) for i in (0, 3, 6)[: len(member) // 3]) + "}"
 
 
 def test_symbol_pages_list_every_form_and_the_racah_w(built):
@@ -321,7 +323,7 @@ def test_every_page_loads_the_jump_data_from_the_records(built):
     fill = lambda pattern, fmt: re.sub(r"\{([^}]+)\}", lambda m: fmt(named[m.group(1)]), pattern)
     code = lambda t: str(t // 2) if t % 2 == 0 else f"{t // 2}.5"
     assert fill(cg["page"], code) == table.page
-    assert fill(cg["anchor"], _h) == entry.anchor
+    assert fill(cg["anchor"], _half_text) == entry.anchor
     assert "BUILD" not in files["assets/site.js"].decode("utf-8")  # the script is the same file for every build
 
 
