@@ -296,7 +296,7 @@ def _silence(out) -> None:
 
 def _options(argv: list[str]) -> dict:
     """Read ``--from FILE --json --digits N --max-j N`` (BadLine names the argument of a mistake)."""
-    from .values.decimals import MAX_DIGITS
+    from .limits import MAX_DIGITS
 
     options: dict = {"source": None, "json": False, "digits": 15, "max_j": None}
     tokens = iter(argv)
@@ -321,5 +321,5 @@ def _options(argv: list[str]) -> dict:
     if not options["source"]:
         raise BadLine("argument --from: expected a file name or '-' for stdin")
     if not 1 <= options["digits"] <= MAX_DIGITS:
-        raise BadLine(f"argument --digits = {options['digits']}: must be from 1 to {MAX_DIGITS}")
+        raise BadLine(f"argument --digits = {options['digits']}: must be from 1 to {MAX_DIGITS:,}")
     return options

@@ -1,7 +1,9 @@
 """The documented limits of the command line and of recipes, as plain constants in one place.
 
-* ``MAX_DIGITS``: significant digits of a decimal, for ``value --digits`` and
-  for a recipe's ``digits`` (``build --digits``) alike.
+* ``MAX_DIGITS``: significant digits of a decimal, for ``value --digits``
+  (with ``--from`` and for d, D, Y too) and for a recipe's ``digits``
+  (``build --digits``) alike.  The value types compute up to
+  ``values.decimals.DECIMAL_MAX_DIGITS`` when called from Python.
 * ``ENGINE_MAX_J``: no j above this is accepted anywhere, not even with
   ``--max-j`` or ``--allow-large``; the one-value limits of each kind
   (``Kind.max_j``, about a second per value) sit far below it.

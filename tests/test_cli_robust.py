@@ -66,12 +66,24 @@ def test_digits_option_text_is_one_line(capsys, text):
 
 
 def test_build_digits_shares_the_value_limit(capsys, tmp_path):
-    # one documented MAX_DIGITS for value --digits and build --digits (limits.MAX_DIGITS)
+    # one documented limit for value --digits and build --digits (limits.MAX_DIGITS)
     status, _, err = _run(capsys, "build", "--cg", "1/2", "--digits", "10001", "--out", str(tmp_path / "s"))
     _one_error(status, err, "--digits", "10,000")
     status, _, err = _run(capsys, *SIXJ, "--digits", "10001")
     _one_error(status, err, "--digits", "10,000")
     assert not (tmp_path / "s").exists()
+
+
+def test_every_value_command_shares_the_digits_limit(capsys, tmp_path):
+    # value --from and value d|D|Y stop at the same limits.MAX_DIGITS as value and build
+    src = tmp_path / "lines.txt"
+    src.write_text("6j 1 1 1 1 1 1\n")
+    for argv in (["value", "--from", str(src), "--digits", "10001"], ["value", "d", "1", "1", "0", "--digits", "10001"]):
+        status, out, err = _run(capsys, *argv)
+        assert status == 2 and out == "" and len(err) == 1 and "Traceback" not in err[0], err
+        assert "argument --digits = 10001: must be from 1 to 10,000" in err[0]
+        status, out, err = _run(capsys, *argv[:-1], "10000")
+        assert status == 0 and err == [], (argv, err)
 
 
 def test_closed_pipe_is_one_line():

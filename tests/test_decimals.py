@@ -26,7 +26,7 @@ from math import isqrt
 import pytest
 
 from tablegen import Surd
-from tablegen.values.decimals import MAX_DIGITS
+from tablegen.values.decimals import DECIMAL_MAX_DIGITS
 
 _TEXT = re.compile(r"^(-?)(\d+)(?:\.(\d+))?(?:e([+-])([1-9]\d*))?$")
 
@@ -261,7 +261,7 @@ def test_zero():
     assert Surd().decimal(40) == "0"
 
 
-@pytest.mark.parametrize("digits", [0, -1, MAX_DIGITS + 1, True, 1.0, "5", None])
+@pytest.mark.parametrize("digits", [0, -1, DECIMAL_MAX_DIGITS + 1, True, 1.0, "5", None])
 def test_bad_digit_counts(digits):
     with pytest.raises(ValueError, match="digits") as info:
         Surd(1, 2, 1).decimal(digits)

@@ -59,10 +59,10 @@ def options_first(tokens: list[str], with_value: tuple[str, ...]) -> list[str]:
 
 
 def check_digits_option(digits: int) -> int:
-    from ..values.decimals import MAX_DIGITS
+    from ..limits import MAX_DIGITS
 
     if not 1 <= digits <= MAX_DIGITS:
-        raise CommandLineError(f"argument --digits = {digits}: must be from 1 to {MAX_DIGITS}")
+        raise CommandLineError(f"argument --digits = {digits}: must be from 1 to {MAX_DIGITS:,}")
     return digits
 
 

@@ -15,9 +15,11 @@ from math import isqrt
 
 from ..intmath import int_text
 
-__all__ = ["MAX_DIGITS", "check_digits", "surd_decimal", "surd_float", "bounded_decimal", "bounded_float"]
+__all__ = ["DECIMAL_MAX_DIGITS", "check_digits", "surd_decimal", "surd_float", "bounded_decimal", "bounded_float"]
 
-MAX_DIGITS = 100_000
+#: The most significant digits ``value.decimal(digits)`` computes (the library's own bound; the
+#: command line and recipes stop at the smaller documented limits.MAX_DIGITS).
+DECIMAL_MAX_DIGITS = 100_000
 
 #: bounds(base, s) -> (low, high) integers with low <= |value| * base**s <= high
 #: (a type alias written as text: importing typing would double the one-value start-up)
@@ -25,9 +27,9 @@ Bounds = "Callable[[int, int], tuple[int, int]]"
 
 
 def check_digits(digits: object) -> None:
-    """ValueError naming the argument unless 1 <= digits <= MAX_DIGITS (an int)."""
-    if not isinstance(digits, int) or isinstance(digits, bool) or not 1 <= digits <= MAX_DIGITS:
-        raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {MAX_DIGITS}")
+    """ValueError naming the argument unless 1 <= digits <= DECIMAL_MAX_DIGITS (an int)."""
+    if not isinstance(digits, int) or isinstance(digits, bool) or not 1 <= digits <= DECIMAL_MAX_DIGITS:
+        raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {DECIMAL_MAX_DIGITS}")
 
 
 _FAST_LEN = 1 << 3000

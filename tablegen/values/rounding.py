@@ -14,7 +14,7 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import Callable
 
-from .decimals import MAX_DIGITS, _format  # one decimal text format for every value type
+from .decimals import DECIMAL_MAX_DIGITS, _format  # one decimal text format for every value type
 
 __all__ = ["round_fraction", "decided_decimal", "mp_to_fraction"]
 
@@ -45,8 +45,8 @@ def round_fraction(f: Fraction, digits: int) -> tuple[int, int, int]:
 
 
 def check_digits(digits: object) -> int:
-    if not isinstance(digits, int) or isinstance(digits, bool) or not 1 <= digits <= MAX_DIGITS:
-        raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {MAX_DIGITS}")
+    if not isinstance(digits, int) or isinstance(digits, bool) or not 1 <= digits <= DECIMAL_MAX_DIGITS:
+        raise ValueError(f"argument digits = {digits!r}: must be a whole number from 1 to {DECIMAL_MAX_DIGITS}")
     return digits
 
 
