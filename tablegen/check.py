@@ -41,7 +41,8 @@ from math import isqrt
 from .errors import TablegenError
 from .kinds import KINDS, KIND_KEYS
 
-__all__ = ["DEFAULT_RTOL", "CheckReport", "Verdict", "check_rows", "judge", "ulp_exponent", "main_check"]
+__all__ = ["DEFAULT_RTOL", "CheckReport", "Disagreement", "Verdict", "check_rows", "judge", "ulp_exponent",
+           "main_check", "report_record"]
 
 #: Default relative tolerance: a double-precision code loses a few digits to
 #: cancellation in the Racah sums; an error of 1e-10 is a real mistake.
@@ -85,19 +86,39 @@ class _Tally:
             self.worst, self.worst_line = verdict.ulps, line
 
 
+@dataclass(frozen=True, slots=True)
+class Disagreement:
+    """A row whose number disagrees with the exact value (line: 1-based line of the file)."""
+
+    line: int
+    kind: str
+    symbol: str
+    verdict: Verdict
+    given: str  # the float read from the file, as Python writes it back (repr)
+    exact: str  # the exact value's canonical text
+    explanation: str  # one sentence: what is wrong, with the exact value and its decimal
+
+    def record(self) -> dict:
+        """The JSON object of ``check --json``."""
+        u = self.verdict.ulps
+        return {"line": self.line, "kind": self.kind, "symbol": self.symbol, "problem": self.verdict.problem,
+                "given": self.given, "exact": self.exact, "zero_rule": self.verdict.rule or None,
+                "error_ulps": None if u is None else f"{float(u):.3g}", "explanation": self.explanation}
+
+
 @dataclass
 class CheckReport:
-    """Counts per kind and overall, the rows that disagree and the bad rows."""
+    """Counts per kind and overall, the rows that disagree and the bad rows ((line, message))."""
 
     rtol: Fraction
     kinds: dict[str, _Tally] = field(default_factory=dict)
     total: _Tally = field(default_factory=_Tally)
-    disagree: list[str] = field(default_factory=list)
-    bad: list[str] = field(default_factory=list)
+    disagreements: list[Disagreement] = field(default_factory=list)
+    bad: list[tuple[int, str]] = field(default_factory=list)
 
     @property
     def status(self) -> int:
-        return 2 if self.bad else 1 if self.disagree else 0
+        return 2 if self.bad else 1 if self.disagreements else 0
 
 
 # -- the exact judgement ---------------------------------------------------------------------
@@ -204,7 +225,7 @@ def check_rows(rows, rtol: Fraction) -> CheckReport:
                 raise BadRow(str(exc)) from None
             f = read_float(text)
         except BadRow as exc:
-            report.bad.append(f"line {n}: {exc}")
+            report.bad.append((n, str(exc)))
             if columns is None:
                 return report  # without a header nothing else can be read
             continue
@@ -214,9 +235,10 @@ def check_rows(rows, rtol: Fraction) -> CheckReport:
         report.kinds.setdefault(key, _Tally()).add(n, verdict)
         report.total.add(n, verdict)
         if verdict.problem is not None:
-            report.disagree.append(f"line {n}: {symbol_text(key, t)}: {_explain(verdict, f, value, rtol)}")
+            report.disagreements.append(Disagreement(
+                n, key, symbol_text(key, t), verdict, repr(f), str(value), _explain(verdict, f, value, rtol)))
     if columns is None:
-        report.bad.append("line 1: no header row (see 'tablegen check --help')")
+        report.bad.append((1, "no header row (see 'tablegen check --help')"))
     return report
 
 
@@ -260,7 +282,7 @@ def summary_lines(report: CheckReport, name: str) -> list[str]:
         if k is not None:
             w = "" if k.worst is None else f", largest error {_ulps_text(k.worst)} (line {k.worst_line})"
             lines.append(f"  {key:<3} {_count(k.rows)}, {k.agree} agree{w}")
-    lines += [f"  disagrees: {row}" for row in report.disagree]
+    lines += [f"  disagrees: line {d.line}: {d.symbol}: {d.explanation}" for d in report.disagreements]
     return lines
 
 
@@ -277,39 +299,84 @@ def parse_rtol(text: "str | None") -> Fraction:
     return rtol
 
 
-def main_check(path: str, rtol_text: "str | None" = None, stdout=None, stderr=None) -> int:
-    """Run ``tablegen check``: the report on stdout, bad input on stderr; the exit status."""
+def report_record(report: CheckReport, name: str) -> dict:
+    """The report as one JSON-ready object (``check --json``): counts, largest errors, each disagreement.
+
+    An error in ulps is a decimal text to three significant digits (it is a
+    measurement, not a number to compute with); lines are 1-based line
+    numbers of the file, as in the text report.
+    """
+    def tally(k: _Tally) -> dict:
+        return {
+            "values": k.rows,
+            "agree": k.agree,
+            "disagree": k.rows - k.agree,
+            "largest_error_ulps": None if k.worst is None else f"{float(k.worst):.3g}",
+            "largest_error_line": None if k.worst is None else k.worst_line,
+        }
+
+    from . import __version__
+    from .commands import JSON_FORMAT
+
+    return {
+        "format": JSON_FORMAT,
+        "file": name,
+        "rtol": _g(report.rtol),
+        **tally(report.total),
+        "kinds": {key: tally(report.kinds[key]) for key in KIND_KEYS if key in report.kinds},
+        "disagreements": [d.record() for d in report.disagreements],
+        "bad_rows": len(report.bad),
+        "version": __version__,
+    }
+
+
+def main_check(path: str, rtol_text: "str | None" = None, stdout=None, stderr=None, as_json: bool = False) -> int:
+    """Run ``tablegen check``: the report on stdout (text, or one JSON object), bad rows on stderr.
+
+    A bad --rtol or an unreadable FILE is an error for cli.main to report (one
+    line, or a JSON object with --json; exit status 2).  Bad rows do not stop
+    the check: each is reported on stderr (a JSON object each with --json) after
+    the report, and the exit status is 2.
+    """
     import sys
+
+    from .errors import OptionError
 
     out = sys.stdout if stdout is None else stdout
     err = sys.stderr if stderr is None else stderr
     try:
         rtol = parse_rtol(rtol_text)
     except BadRow as exc:
-        print(f"tablegen check: {exc}", file=err)
-        return 2
+        raise OptionError("--rtol", rtol_text, str(exc).split(": ", 1)[1]) from None
     try:
         # utf-8-sig: a spreadsheet's export may start with a byte-order mark
         stream = sys.stdin if path == "-" else open(path, encoding="utf-8-sig", newline="")  # noqa: SIM115
     except OSError as exc:
-        print(f"tablegen check: argument FILE = {path!r}: cannot read: {exc.strerror or exc}", file=err)
-        return 2
+        raise OptionError("FILE", path, f"cannot read: {exc.strerror or exc}") from None
     try:
         report = check_rows(csv.reader(stream), rtol)
     except (OSError, UnicodeDecodeError, csv.Error) as exc:
         why = f"not UTF-8 text (byte {exc.start})" if isinstance(exc, UnicodeDecodeError) else (
             getattr(exc, "strerror", None) or str(exc))
-        print(f"tablegen check: argument FILE = {path!r}: cannot read: {why}", file=err)
-        return 2
+        raise OptionError("FILE", path, f"cannot read: {why}") from None
     finally:
         if path != "-":
             stream.close()
-    try:
-        print("\n".join(summary_lines(report, path)), file=out)
-        out.flush()
-    except OSError as exc:
-        print(f"tablegen check: cannot write the report: {exc.strerror or exc}", file=err)
-        return 2
-    for row in report.bad:
-        print(f"tablegen check: {path} {row}", file=err)
+    if as_json:
+        import json
+
+        out.write(json.dumps(report_record(report, path), ensure_ascii=False) + "\n")
+    else:
+        out.write("\n".join(summary_lines(report, path)) + "\n")
+    out.flush()  # a closed or full output raises here: cli.main says so in one line
+    for line, message in report.bad:
+        if as_json:
+            import json
+
+            from .commands import JSON_FORMAT
+
+            error = {"message": message, "file": path, "line": line}
+            print(json.dumps({"format": JSON_FORMAT, "error": error}, ensure_ascii=True), file=err)
+        else:
+            print(f"tablegen check: {path} line {line}: {message}", file=err)
     return report.status

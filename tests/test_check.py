@@ -96,7 +96,7 @@ def test_planted_errors_are_found_and_correct_rows_agree():
     assert report.total.rows == len(CORRECT) + 6
     # the six planted rows: all but "one ulp up" and the exact 1.0D0 disagree
     assert report.total.agree == len(CORRECT) + 2
-    problems = {int(row.split(":")[0].split()[1]): row for row in report.disagree}
+    problems = {d.line: d.explanation for d in report.disagreements}
     assert sorted(problems) == [15, 17, 18, 19]
     assert "sign wrong" in problems[15]
     assert "relative error 1e-10 > rtol 1e-12" in problems[17]
@@ -132,6 +132,64 @@ def test_cli_report_and_exit_status(tmp_path, capsys):
     assert cli.main(["check", str(path), "--rtol", "1e-9"]) == 1
     out, _ = capsys.readouterr()
     assert "disagrees: line 17" not in out and "disagrees: line 15" in out
+
+
+def test_json_report_has_the_text_report_s_numbers(tmp_path, capsys):
+    # check --json: one object on stdout, with the format version, the same counts and the same
+    # four planted disagreements the text report names (sympy's rows agree, see _rows)
+    import json
+
+    from tablegen.commands import JSON_FORMAT
+
+    path = tmp_path / "table.csv"
+    path.write_text(_csv(_rows()))
+    assert cli.main(["check", str(path), "--json"]) == 1
+    out, err = capsys.readouterr()
+    assert err == "" and len(out.splitlines()) == 1
+    record = json.loads(out)
+    assert record["format"] == JSON_FORMAT and record["file"] == str(path) and record["rtol"] == "1e-12"
+    assert (record["values"], record["agree"], record["disagree"], record["bad_rows"]) == (19, 15, 4, 0)
+    assert record["largest_error_line"] == 17 and 1e5 < float(record["largest_error_ulps"]) < 1e7
+    assert record["kinds"]["9j"]["values"] == 3 and record["kinds"]["9j"]["agree"] == 2
+    assert list(record["kinds"]) == [k for k in ("cg", "3j", "6j", "w", "9j") if k in record["kinds"]]
+    problems = {d["line"]: d for d in record["disagreements"]}
+    assert {n: d["problem"] for n, d in problems.items()} == {
+        15: "sign", 17: "tolerance", 18: "zero-rule", 19: "nonzero"}
+    assert problems[18]["zero_rule"] == "parity: all m are 0 and j1 + j2 + j3 is odd"
+    assert problems[18]["exact"] == "0" and problems[18]["given"] == "1e-17"
+    assert problems[15]["exact"] == "sqrt(7/180)" and problems[15]["given"].startswith("-0.1972")
+    assert all(isinstance(d["explanation"], str) and d["symbol"] for d in record["disagreements"])
+
+
+@pytest.mark.parametrize("argv, argument", [
+    (["check", "/nonexistent.csv", "--json"], "FILE"),
+    (["check", "x.csv", "--rtol", "abc", "--json"], "--rtol"),
+    (["check", "x.csv", "--json", "--rtol", "2"], "--rtol"),
+])
+def test_json_errors_are_json_on_stderr(capsys, argv, argument):
+    import json
+
+    assert cli.main(argv) == 2
+    out, err = capsys.readouterr()
+    assert out == "" and len(err.splitlines()) == 1
+    record = json.loads(err)
+    assert record["format"] == 1 and record["error"]["argument"] == argument
+    assert record["error"]["message"].startswith(f"argument {argument} = ")
+
+
+def test_json_bad_rows_are_json_on_stderr_and_the_rest_checked(tmp_path, capsys):
+    import json
+
+    path = tmp_path / "bad.csv"
+    path.write_text("kind,arguments,value\n6j,1 1 1 1 1 1,abc\n6j,1 1 1 1 1 1,0.16666666666666666\n7j,1 1,0.5\n")
+    assert cli.main(["check", str(path), "--json"]) == 2
+    out, err = capsys.readouterr()
+    record = json.loads(out)
+    assert (record["values"], record["agree"], record["bad_rows"]) == (1, 1, 2)
+    errors = [json.loads(line) for line in err.splitlines()]
+    assert [(e["format"], e["error"]["file"], e["error"]["line"]) for e in errors] == [(1, str(path), 2), (1, str(path), 4)]
+    assert "column value = 'abc'" in errors[0]["error"]["message"]
+    assert "column kind = '7j'" in errors[1]["error"]["message"]
 
 
 def test_argument_columns_layout(tmp_path, capsys):
