@@ -457,6 +457,27 @@ def test_value_path_imports_no_heavy_module():
     assert done.stdout.strip().splitlines()[-1] == "[]"
 
 
+# what a lookup needs not: typing, dataclasses, fractions (with decimal), numbers, shutil (argparse's own
+# help formatter), the other commands' parsers' modules and the other kinds' modules
+_UNUSED = ("typing", "dataclasses", "fractions", "decimal", "numbers", "shutil", "tablegen.commands.build",
+           "tablegen.kinds.lsjj", "tablegen.kinds.recoupling", "tablegen.kinds.states", "tablegen.values.exact_sum")
+
+
+@pytest.mark.parametrize("argv, more", [
+    (["value", "6j", "2", "3", "3", "2", "3", "3", "--latex"], ("json", "tablegen.kinds.ninej")),
+    (["value", "cg", "3/2", "1/2", "1", "-1", "5/2", "-1/2"], ("json", "tablegen.kinds.sixj")),
+    (["value", "9j", "1", "1", "1", "1", "1", "1", "1", "1", "0", "--json"], ()),
+])
+def test_value_path_imports_only_what_it_uses(argv, more):
+    code = (
+        f"import sys; from tablegen.cli import main; status = main({argv!r});"
+        f"print(status, [m for m in {_UNUSED + more!r} if m in sys.modules])"
+    )
+    done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
+    assert done.returncode == 0, done.stderr
+    assert done.stdout.strip().splitlines()[-1] == "0 []"
+
+
 # -- BibTeX ------------------------------------------------------------------------------------
 HOSTILE_TITLE = "Übung ✓ ⟨j m| -- `` !` ?` naïve Łódź α ⊗ 😀 $ & % # _ { } ~ ^ \\"
 
