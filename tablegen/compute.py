@@ -56,9 +56,8 @@ class ComputeError(TablegenError):
 #: Every value of a build: (kind key, doubled arguments) -> its FormattedValue.
 ComputedValues = dict[tuple[str, tuple[int, ...]], FormattedValue]
 
-# The old names, only for render/data.py, which is being rewritten on another branch:
-# remove both when it imports FormattedValue and ComputedValues.
-Shown = FormattedValue
+# The old name, only for render/data.py, which is being changed on another branch:
+# remove it when data.py imports ComputedValues.
 ValueBook = ComputedValues
 
 
