@@ -9,7 +9,6 @@ about N**2 * 0.6 bytes (N = 4002 for j = 1000: ~10 MB).
 
 from __future__ import annotations
 
-from bisect import bisect_right
 from math import isqrt
 
 __all__ = [
@@ -72,6 +71,8 @@ def primes_upto(n: int) -> list[int]:
         _SIEVE_LIMIT = limit
     if n >= _SIEVE_LIMIT:
         return _PRIMES
+    from bisect import bisect_right  # here: a small lookup never factors (start-up time)
+
     return _PRIMES[: bisect_right(_PRIMES, n)]
 
 

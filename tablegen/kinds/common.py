@@ -6,7 +6,12 @@ from ..spins import parse_j
 from ..triads import triad_failure
 from . import ZeroRule
 
-__all__ = ["TRIAD_TEXT", "check_count", "parse_js", "triad_zero", "projection_zero", "first_triad_zero"]
+__all__ = ["CACHE_ENTRIES", "CACHE_MAX_J", "TRIAD_TEXT", "check_count", "parse_js", "triad_zero", "projection_zero", "first_triad_zero"]
+
+#: Largest number of values each kind's cache keeps (least recently used go first).
+CACHE_ENTRIES = 1 << 16
+#: Only symbols with every j <= this are cached, bounding each cached value's size.
+CACHE_MAX_J = 40
 
 TRIAD_TEXT = {"triad-sum": "do not add up to an integer", "triangle": "violate the triangle rule"}
 

@@ -16,9 +16,8 @@ from ..symmetry import ninej_members
 from ..triads import is_triad
 from ..values import Surd
 from . import Kind, Notation, Selection, ZeroRule
-from .common import first_triad_zero, parse_js
+from .common import CACHE_ENTRIES, CACHE_MAX_J, first_triad_zero, parse_js
 from .sixj import sixj_invariants, sixj_racah_sum
-from .threej import CACHE_ENTRIES, CACHE_MAX_J
 
 __all__ = ["ninej2", "NINEJ"]
 

@@ -19,8 +19,7 @@ from ..symmetry import sixj_members
 from ..triads import sixj_sums
 from ..values import Surd
 from . import Kind, Notation, Selection, ZeroRule
-from .common import first_triad_zero, parse_js
-from .threej import CACHE_ENTRIES, CACHE_MAX_J
+from .common import CACHE_ENTRIES, CACHE_MAX_J, first_triad_zero, parse_js
 
 __all__ = [
     "sixj2",

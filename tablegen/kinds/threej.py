@@ -24,14 +24,10 @@ from ..triads import is_triad
 from ..values import Surd
 from . import Kind, Notation, Selection, ZeroRule
 from ..spins import parse_j, parse_m
-from .common import check_count, first_triad_zero, projection_zero
+from .common import CACHE_ENTRIES, CACHE_MAX_J, check_count, first_triad_zero, projection_zero
 
 __all__ = ["threej2", "cg2", "THREEJ", "CG", "CACHE_ENTRIES", "CACHE_MAX_J"]
 
-#: Largest number of values each kind's cache keeps (least recently used go first).
-CACHE_ENTRIES = 1 << 16
-#: Only symbols with every j <= this are cached, bounding each cached value's size.
-CACHE_MAX_J = 40
 _CACHE_MAX_TJ = 2 * CACHE_MAX_J
 
 _ZERO = Surd._trusted(0, 0, 1)
