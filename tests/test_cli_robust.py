@@ -478,6 +478,25 @@ def test_value_path_imports_only_what_it_uses(argv, more):
     assert done.stdout.strip().splitlines()[-1] == "0 []"
 
 
+@pytest.mark.parametrize("argv", [
+    ["value", "d", "1", "1", "0"],
+    ["value", "Y", "2", "1", "--theta", "pi/3"],
+    ["lsjj", "1", "1"],
+    ["check", "--help"],
+])
+def test_commands_with_their_own_parsers_do_not_load_shutil(argv):
+    # argparse's own help formatter imports shutil (and bz2, lzma) on the first add_argument;
+    # every parser here uses commands.help_formatter, which does not
+    code = (
+        f"import sys, io; from tablegen.cli import main; out = sys.stdout; sys.stdout = io.StringIO();"
+        f"status = main({argv!r}); sys.stdout = out;"
+        f"print(status, [m for m in ('shutil', 'sympy', 'jinja2') if m in sys.modules])"
+    )
+    done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
+    assert done.returncode == 0, done.stderr
+    assert done.stdout.strip().splitlines()[-1] == "0 []"
+
+
 # -- BibTeX ------------------------------------------------------------------------------------
 HOSTILE_TITLE = "Übung ✓ ⟨j m| -- `` !` ?` naïve Łódź α ⊗ 😀 $ & % # _ { } ~ ^ \\"
 
