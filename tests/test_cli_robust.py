@@ -497,6 +497,22 @@ def test_commands_with_their_own_parsers_do_not_load_shutil(argv):
     assert done.stdout.strip().splitlines()[-1] == "0 []"
 
 
+@pytest.mark.parametrize("argv", [
+    ["value", "d", "3/2", "1/2", "-1/2", "--beta", "pi/3"],
+    ["value", "Y", "3", "-2"],
+])
+def test_function_lookups_load_neither_typing_nor_dataclasses(argv):
+    # typing.NamedTuple and dataclasses would pull in typing, inspect and ast: most of a lookup's start-up
+    code = (
+        f"import sys, io; from tablegen.cli import main; out = sys.stdout; sys.stdout = io.StringIO();"
+        f"status = main({argv!r}); sys.stdout = out;"
+        f"print(status, [m for m in ('typing', 'dataclasses', 'inspect', 'mpmath') if m in sys.modules])"
+    )
+    done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
+    assert done.returncode == 0, done.stderr
+    assert done.stdout.strip().splitlines()[-1] == "0 []"
+
+
 # -- BibTeX ------------------------------------------------------------------------------------
 HOSTILE_TITLE = "Übung ✓ ⟨j m| -- `` !` ?` naïve Łódź α ⊗ 😀 $ & % # _ { } ~ ^ \\"
 

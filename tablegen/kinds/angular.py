@@ -17,13 +17,12 @@ sent to the rounding (which could not decide it).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from collections import namedtuple
 from fractions import Fraction
-from typing import Callable, NamedTuple
 
 from ..angles import cos_of_pi_multiple, half_angle_signs, parse_angle, parse_cosine
 from ..values.surd import Surd
-from . import Kind, ZeroRule
+from . import Kind, ZeroRule, _Record
 from .harmonics import SPHERICAL_Y
 from .rotation import ROTATION_D_BIG, ROTATION_D_SMALL, d2, d_at_cos2
 
@@ -31,35 +30,33 @@ __all__ = ["FunctionKind", "Evaluation", "Polar", "FUNCTION_KINDS", "FUNCTION_KE
            "PhasedPiPower"]
 
 
-class Polar(NamedTuple):
+# Records here are named tuples from collections and slotted _Record classes, not typing.NamedTuple
+# or dataclasses: those import typing, inspect and ast, which would double the start-up of `value d`.
+
+
+class Polar(namedtuple("Polar", "form x signs", defaults=(None,))):
     """The polar angle: ('cos', c, signs) with a rational cosine c and the signs of
     cos, sin of the half angle; ('pi', r, None) for r*pi; ('rad', x, None) for x radians."""
 
-    form: str
-    x: Fraction
-    signs: "tuple[int, int] | None" = None
+    __slots__ = ()
 
 
-class Phase(NamedTuple):
+class Phase(namedtuple("Phase", "pi_part rad_part", defaults=(Fraction(0), Fraction(0)))):
     """An angle pi_part * pi + rad_part (radians), both exact rationals."""
 
-    pi_part: Fraction = Fraction(0)
-    rad_part: Fraction = Fraction(0)
+    __slots__ = ()
 
     def __add__(self, other: "Phase") -> "Phase":  # type: ignore[override]
         return Phase(self.pi_part + other.pi_part, self.rad_part + other.rad_part)
 
 
-class Evaluation(NamedTuple):
-    """A value at given angles: the exact value (None if not exact here), its decimal, why it is zero."""
+class Evaluation(namedtuple("Evaluation", "exact decimal zero_rule")):
+    """A value at given angles: the exact value (None if not exact here), its decimal, why it is zero (a ZeroRule)."""
 
-    exact: object
-    decimal: str
-    zero_rule: "ZeroRule | None"
+    __slots__ = ()
 
 
-@dataclass(frozen=True)
-class FunctionKind:
+class FunctionKind(_Record):
     """A kind whose value is a function of angles.
 
     kind: the Kind record (key, arguments, parse, function on doubled arguments, zero rule).
@@ -73,15 +70,10 @@ class FunctionKind:
     convention: the definition, stated wherever a value is shown.
     """
 
-    kind: Kind
-    angles: tuple[str, ...]
-    polar: str
-    azimuths: tuple[str, ...]
-    phase_factors: Callable[[tuple[int, ...]], tuple[int, ...]]
-    symbol: str
-    convention: str
-    polar_part: Callable[[tuple[int, ...]], object]
-    pi_power: int = 0
+    __slots__ = ("kind", "angles", "polar", "azimuths", "phase_factors", "symbol", "convention", "polar_part",
+                 "pi_power")
+    _fields = __slots__
+    _defaults = {"pi_power": 0}
 
     @property
     def key(self) -> str:

@@ -12,7 +12,10 @@ used; the only approximation is mpmath's, and it is enclosed.
 from __future__ import annotations
 
 from fractions import Fraction
-from typing import Callable
+
+TYPE_CHECKING = False  # typing is not imported: it would slow the start-up of `value d|D|Y`
+if TYPE_CHECKING:  # pragma: no cover
+    from collections.abc import Callable
 
 from .decimals import DECIMAL_MAX_DIGITS, _format  # one decimal text format for every value type
 

@@ -18,7 +18,10 @@ from __future__ import annotations
 
 from fractions import Fraction
 from math import gcd, lcm
-from typing import Sequence
+
+TYPE_CHECKING = False  # typing is not imported: it would slow the start-up of `value d|D|Y`
+if TYPE_CHECKING:  # pragma: no cover
+    from collections.abc import Sequence
 
 from .surd import Surd
 
