@@ -56,10 +56,6 @@ class ComputeError(TablegenError):
 #: Every value of a build: (kind key, doubled arguments) -> its FormattedValue.
 ComputedValues = dict[tuple[str, tuple[int, ...]], FormattedValue]
 
-# The old name, only for render/data.py, which is being changed on another branch:
-# remove it when data.py imports ComputedValues.
-ValueBook = ComputedValues
-
 
 def format_value(value: Surd, digits: int, style: str, zero_rule: object = None) -> FormattedValue:
     """All text forms of one value.

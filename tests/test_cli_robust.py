@@ -449,8 +449,8 @@ def test_max_j_has_a_ceiling(capsys):
 # -- start-up ---------------------------------------------------------------------------------
 def test_value_path_imports_no_heavy_module():
     code = (
-        "import sys; from tablegen.cli import main; main(['value', '9j', '1', '1', '1', '1', '1', '1', '1', '1', '0',"
-        " '--json', '--latex']); print([m for m in ('sympy', 'jinja2', 'mpmath', 'dataclasses') if m in sys.modules])"
+        "import sys; before = set(sys.modules); from tablegen.cli import main; main(['value', '9j', '1', '1', '1', '1', '1', '1', '1', '1', '0',"
+        " '--json', '--latex']); print([m for m in ('sympy', 'jinja2', 'mpmath', 'dataclasses') if m in set(sys.modules) - before])"
     )
     done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
     assert done.returncode == 0, done.stderr
@@ -470,8 +470,8 @@ _UNUSED = ("typing", "dataclasses", "fractions", "decimal", "numbers", "shutil",
 ])
 def test_value_path_imports_only_what_it_uses(argv, more):
     code = (
-        f"import sys; from tablegen.cli import main; status = main({argv!r});"
-        f"print(status, [m for m in {_UNUSED + more!r} if m in sys.modules])"
+        f"import sys; before = set(sys.modules); from tablegen.cli import main; status = main({argv!r});"
+        f"print(status, [m for m in {_UNUSED + more!r} if m in set(sys.modules) - before])"
     )
     done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
     assert done.returncode == 0, done.stderr
@@ -488,9 +488,9 @@ def test_commands_with_their_own_parsers_do_not_load_shutil(argv):
     # argparse's own help formatter imports shutil (and bz2, lzma) on the first add_argument;
     # every parser here uses commands.help_formatter, which does not
     code = (
-        f"import sys, io; from tablegen.cli import main; out = sys.stdout; sys.stdout = io.StringIO();"
+        f"import sys, io; before = set(sys.modules); from tablegen.cli import main; out = sys.stdout; sys.stdout = io.StringIO();"
         f"status = main({argv!r}); sys.stdout = out;"
-        f"print(status, [m for m in ('shutil', 'sympy', 'jinja2') if m in sys.modules])"
+        f"print(status, [m for m in ('shutil', 'sympy', 'jinja2') if m in set(sys.modules) - before])"
     )
     done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
     assert done.returncode == 0, done.stderr
@@ -500,13 +500,14 @@ def test_commands_with_their_own_parsers_do_not_load_shutil(argv):
 @pytest.mark.parametrize("argv", [
     ["value", "d", "3/2", "1/2", "-1/2", "--beta", "pi/3"],
     ["value", "Y", "3", "-2"],
+    ["value", "state3", "1/2", "1/2", "1/2", "1", "3/2", "1/2", "1/2", "1/2", "-1/2"],  # a coupled-state coefficient
 ])
 def test_function_lookups_load_neither_typing_nor_dataclasses(argv):
     # typing.NamedTuple and dataclasses would pull in typing, inspect and ast: most of a lookup's start-up
     code = (
-        f"import sys, io; from tablegen.cli import main; out = sys.stdout; sys.stdout = io.StringIO();"
+        f"import sys, io; before = set(sys.modules); from tablegen.cli import main; out = sys.stdout; sys.stdout = io.StringIO();"
         f"status = main({argv!r}); sys.stdout = out;"
-        f"print(status, [m for m in ('typing', 'dataclasses', 'inspect', 'mpmath') if m in sys.modules])"
+        f"print(status, [m for m in ('typing', 'dataclasses', 'inspect', 'mpmath') if m in set(sys.modules) - before])"
     )
     done = subprocess.run([sys.executable, "-c", code], env=_env(), capture_output=True, text=True, timeout=60)
     assert done.returncode == 0, done.stderr

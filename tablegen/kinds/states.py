@@ -21,7 +21,7 @@ data; :func:`state_kind` makes its Kind, and the site's tables and kets
 
 from __future__ import annotations
 
-from typing import NamedTuple
+from collections import namedtuple
 
 from ..values import Surd
 from . import Kind, Notation, Selection
@@ -32,15 +32,15 @@ __all__ = ["StateTree", "TREE3", "TREE4", "STATE3", "STATE4", "state3", "state4"
 _ZERO = Surd._trusted(0, 0, 1)
 
 
-class StateTree(NamedTuple):
+class StateTree(namedtuple("StateTree", "leaves inner nodes")):
     """A binary coupling tree as positions in the list of j's: leaves j1..jn, the intermediates, then J.
 
+    leaves: how many; inner: names of the intermediates, in the order of ``nodes``;
     nodes: (left, right, coupled) positions, children before parents, the last one coupling to J.
+    (A collections named tuple: typing would cost a one-value lookup of a state its start-up.)
     """
 
-    leaves: int
-    inner: tuple[str, ...]  # names of the intermediates, in the order of ``nodes``
-    nodes: tuple[tuple[int, int, int], ...]
+    __slots__ = ()
 
     @property
     def j_names(self) -> tuple[str, ...]:

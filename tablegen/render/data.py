@@ -15,7 +15,7 @@ import json
 from typing import Iterator
 
 from ..buildinfo import BuildMeta, bibtex
-from ..compute import ValueBook
+from ..compute import ComputedValues
 from ..families import Family, named_symbol
 from ..kinds import ALL_KIND_KEYS, kind
 from ..plan import SitePlan, Table
@@ -41,7 +41,7 @@ def values_header(kinds: "list[str] | tuple[str, ...]") -> str:
     return _VALUES_PREAMBLE + "".join(lines)
 
 
-def canonical_values(book: ValueBook) -> bytes:
+def canonical_values(book: ComputedValues) -> bytes:
     """values.txt: every value of the build, sorted, one per line."""
     order = {f: i for i, f in enumerate(ALL_KIND_KEYS)}  # registry order: cg, 3j, 6j, w, 9j, ..., then functions
     items = sorted(book.items(), key=lambda kv: (order[kv[0][0]], kv[0][1]))
@@ -50,7 +50,7 @@ def canonical_values(book: ValueBook) -> bytes:
     return (values_header(kinds) + "".join(lines)).encode("utf-8")
 
 
-def _cells(table: Table, fam: Family, book: ValueBook) -> Iterator[list]:
+def _cells(table: Table, fam: Family, book: ComputedValues) -> Iterator[list]:
     """Typed cells of every row, in the order of ``fam.data_columns``.
 
     Integers stay integers (sign, p, q, counts, companion signs) and a value
@@ -71,7 +71,7 @@ def _cells(table: Table, fam: Family, book: ValueBook) -> Iterator[list]:
         yield row
 
 
-def _csv(table: Table, fam: Family, book: ValueBook) -> bytes:
+def _csv(table: Table, fam: Family, book: ComputedValues) -> bytes:
     buf = io.StringIO()
     writer = csv.writer(buf, lineterminator="\n")
     writer.writerow(fam.data_columns)
@@ -79,7 +79,7 @@ def _csv(table: Table, fam: Family, book: ValueBook) -> bytes:
     return buf.getvalue().encode("utf-8")
 
 
-def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: int) -> bytes:
+def _json(table: Table, fam: Family, book: ComputedValues, meta: BuildMeta, digits: int) -> bytes:
     """The CSV's columns with their types, plus (for symbols filed by class) every equal form.
 
     One compact line: the file is for programs (the CSV is the one to read
@@ -107,7 +107,7 @@ def _json(table: Table, fam: Family, book: ValueBook, meta: BuildMeta, digits: i
     return (json.dumps(doc, ensure_ascii=False, separators=(",", ":")) + "\n").encode("utf-8")
 
 
-def render_data(plan: SitePlan, book: ValueBook, meta: BuildMeta, values_txt: bytes) -> Iterator[tuple[str, bytes]]:
+def render_data(plan: SitePlan, book: ComputedValues, meta: BuildMeta, values_txt: bytes) -> Iterator[tuple[str, bytes]]:
     """Every data file of the build (tables, values.txt, recipe.toml, cite.bib)."""
     for table in plan.tables:
         fam = plan.family(table.family)
