@@ -220,26 +220,26 @@ def main_from(argv: list[str], stdout: "IO[str] | None" = None, stderr: "IO[str]
     if "-h" in argv or "--help" in argv:
         print(USAGE, file=out)
         return 0
+    from .commands import error_line
+
     try:
         options = _options(argv)
     except BadLine as exc:
-        print(f"tablegen value: {exc}", file=err)
+        print(error_line(str(exc), "--json" in argv), file=err)
         return 2
     source, as_json = options["source"], options["json"]
     name = "stdin" if source == "-" else source
 
-    def report_bad(n: int, message: str) -> None:
-        if as_json:
-            import json
+    def fail(message: str, **fields) -> None:
+        print(error_line(message, as_json, **fields), file=err)
 
-            print(json.dumps({"error": message, "file": name, "line": n}, ensure_ascii=False), file=err)
-        else:
-            print(f"tablegen value: {name} line {n}: {message}", file=err)
+    def report_bad(n: int, message: str) -> None:
+        fail(message if as_json else f"{name} line {n}: {message}", file=name, line=n)
 
     try:
         stream = sys.stdin.buffer if source == "-" else open(source, "rb")  # noqa: SIM115
     except OSError as exc:
-        print(f"tablegen value: argument --from = {source!r}: cannot read: {exc.strerror or exc}", file=err)
+        fail(f"argument --from = {source!r}: cannot read: {exc.strerror or exc}", argument="--from")
         return 2
     try:
         answered, bad = answer_stream(
@@ -248,17 +248,17 @@ def main_from(argv: list[str], stdout: "IO[str] | None" = None, stderr: "IO[str]
         )
         out.flush()
     except _InputError as exc:
-        print(f"tablegen value: argument --from = {source!r}: cannot read: {exc}", file=err)
+        fail(f"argument --from = {source!r}: cannot read: {exc}", argument="--from")
         return 2
     except OSError as exc:  # a closed pipe or a full disk: say so once, leave quietly
         _silence(out)
-        print(f"tablegen value: cannot write the output: {exc.strerror or exc}", file=err)
+        fail(f"cannot write the output: {exc.strerror or exc}")
         return 2
     finally:
         if source != "-":
             stream.close()
     if bad:
-        print(f"tablegen value: {bad} bad line{'s' * (bad != 1)}, {answered} answered", file=err)
+        fail(f"{bad} bad line{'s' * (bad != 1)}, {answered} answered", bad=bad, answered=answered)
         return 2
     return 0
 

@@ -369,14 +369,9 @@ def main_check(path: str, rtol_text: "str | None" = None, stdout=None, stderr=No
     else:
         out.write("\n".join(summary_lines(report, path)) + "\n")
     out.flush()  # a closed or full output raises here: cli.main says so in one line
+    from .commands import error_line
+
     for line, message in report.bad:
-        if as_json:
-            import json
-
-            from .commands import JSON_FORMAT
-
-            error = {"message": message, "file": path, "line": line}
-            print(json.dumps({"format": JSON_FORMAT, "error": error}, ensure_ascii=True), file=err)
-        else:
-            print(f"tablegen check: {path} line {line}: {message}", file=err)
+        text = message if as_json else f"{path} line {line}: {message}"
+        print(error_line(text, as_json, file=path, line=line), file=err)
     return report.status

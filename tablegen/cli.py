@@ -81,21 +81,16 @@ def _message(exc: BaseException) -> str:
 
 def _fail(message: str, exc: BaseException | None, as_json: bool, status: int) -> int:
     text = _short_line(message)
-    if as_json:
-        import json
+    from .commands import error_line
 
-        from .commands import JSON_FORMAT
-
-        error = {"message": text}
-        for field in ("argument", "key", "value", "rule", "path"):
-            if exc is not None and hasattr(exc, field):
-                value = getattr(exc, field)
-                error[field] = value if isinstance(value, (int, str)) or value is None else str(value)
-        if "value" in error and isinstance(error["value"], str):
-            error["value"] = _short_line(error["value"], 60)
-        line = json.dumps({"format": JSON_FORMAT, "error": error}, ensure_ascii=True)
-    else:
-        line = f"tablegen: error: {text}"
+    fields = {}
+    for field in ("argument", "key", "value", "rule", "path"):
+        if as_json and exc is not None and hasattr(exc, field):
+            value = getattr(exc, field)
+            fields[field] = value if isinstance(value, (int, str)) or value is None else str(value)
+    if isinstance(fields.get("value"), str):
+        fields["value"] = _short_line(fields["value"], 60)
+    line = error_line(text, as_json, **fields)
     try:
         print(line, file=sys.stderr, flush=True)
     except (OSError, ValueError):  # stderr closed too: nothing more can be said

@@ -139,12 +139,13 @@ def test_bad_lines_are_reported_and_the_rest_answered(tmp_path, capsys):
     assert [r[0] for r in rows] == ["1", "6"]
     lines = err.splitlines()
     assert len(lines) == 6 and "Traceback" not in err
+    assert all(line.startswith("tablegen: error: ") for line in lines)  # one format for every error line
     assert lines[0].endswith("line 2: argument m1 = '3/2': j1 - m1 must be an integer (j1 = 1)")
     assert "line 3: kind = '7j': must be one of cg, 3j, 6j, w, 9j" in lines[1]
     assert "line 4: 6j needs 6 arguments" in lines[2]
     assert "line 5: argument j1 = '-1': j must be >= 0" in lines[3]
     assert "line 7: argument j33 = 'x': not a number" in lines[4]
-    assert lines[5] == "tablegen value: 5 bad lines, 2 answered"
+    assert lines[5] == "tablegen: error: 5 bad lines, 2 answered"
 
 
 def test_bad_line_reads_the_same_after_its_tokens_were_cached():
@@ -160,8 +161,11 @@ def test_json_bad_lines_are_json_on_stderr(tmp_path, capsys):
     src.write_text("cg 1 3/2 1 0 1 0\n3j 1 1 0 1 -1 0\n")
     status, out, err = _run(capsys, ["value", "--json", "--from", str(src)])
     assert status == 2 and len(out.splitlines()) == 1
-    first = json.loads(err.splitlines()[0])
-    assert first["line"] == 1 and "m1" in first["error"]
+    first, last = (json.loads(line) for line in err.splitlines())
+    # the same shape as every other error of the command line: {"format": 1, "error": {...}}
+    assert first["format"] == 1 and first["error"]["line"] == 1 and first["error"]["file"] == str(src)
+    assert "m1" in first["error"]["message"]
+    assert last["error"]["bad"] == 1 and last["error"]["answered"] == 1
 
 
 def test_stdin_and_non_utf8_line(capsys, monkeypatch):
@@ -221,7 +225,7 @@ def test_broken_pipe_is_one_line(tmp_path):
         err = proc.stderr.read().decode()
         assert proc.wait(timeout=60) == 2
     assert "Traceback" not in err and "Exception ignored" not in err
-    assert err.strip().splitlines() == ["tablegen value: cannot write the output: Broken pipe"]
+    assert err.strip().splitlines() == ["tablegen: error: cannot write the output: Broken pipe"]
 
 
 @pytest.mark.skipif(not os.path.exists("/dev/full"), reason="needs /dev/full")
@@ -232,7 +236,7 @@ def test_full_device_is_one_line(tmp_path):
         proc = _cli(["value", "--from", str(src)], stdout=full, stderr=subprocess.PIPE, timeout=60)
     err = proc.stderr.decode()
     assert proc.returncode == 2 and "Traceback" not in err
-    assert err.strip().splitlines() == ["tablegen value: cannot write the output: No space left on device"]
+    assert err.strip().splitlines() == ["tablegen: error: cannot write the output: No space left on device"]
 
 
 def test_help_names_the_format(capsys):

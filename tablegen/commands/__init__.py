@@ -28,13 +28,24 @@ TYPE_CHECKING = False  # not typing's: importing typing would slow every lookup'
 if TYPE_CHECKING:  # pragma: no cover
     from collections.abc import Callable
 
-__all__ = ["Command", "COMMANDS", "command", "emit", "warn", "JSON_FORMAT", "route", "SUMMARIES", "help_formatter"]
+__all__ = ["Command", "COMMANDS", "command", "emit", "warn", "JSON_FORMAT", "route", "SUMMARIES", "help_formatter",
+           "error_line"]
 
 #: True when cli.main runs as the program (it exits afterwards); set by cli.main.
 AS_PROGRAM = False
 
 #: Version of every JSON record the command line writes (results and errors).
 JSON_FORMAT = 1
+
+
+def error_line(message: str, as_json: bool = False, **fields) -> str:
+    """The one form of every error line: 'tablegen: error: MESSAGE', or with --json the
+    object {"format": 1, "error": {"message": ..., **fields}} (fields such as argument, file, line)."""
+    if not as_json:
+        return f"tablegen: error: {message}"
+    import json
+
+    return json.dumps({"format": JSON_FORMAT, "error": {"message": message, **fields}}, ensure_ascii=True)
 
 
 class Command:
