@@ -143,11 +143,13 @@ def test_json_option(capsys):
     assert record["digits"] == 30
     assert len(record["decimal"].lstrip("-").replace(".", "").lstrip("0")) == 30
     assert record["arguments"] == {"j1": "5/2", "j2": "2", "j3": "1/2", "j4": "1", "j5": "3/2", "j6": "2"}
-    assert record["convention"] == "Condon-Shortley"
+    # the 6j has no phase choice of its own (Edmonds 1957, ch. 6): the record must not claim one
+    assert "no phase choice" in record["convention"] and not record["convention"].startswith("Condon")
 
 
 def test_json_with_latex_and_zero(capsys):
     status, out, _ = _run(capsys, ["value", "--json", "--latex", "cg", "1", "0", "1", "0", "1", "0"])
+    assert json.loads(out)["convention"] == "Condon-Shortley phase"
     assert status == 0
     record = json.loads(out)
     assert record["exact"] == "0" and record["decimal"] == "0"

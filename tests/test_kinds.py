@@ -25,10 +25,24 @@ from tablegen.triads import is_triad
 
 
 def test_the_list_and_lookup():
-    assert KIND_KEYS == ("cg", "3j", "6j", "w", "9j", "recouple3", "recouple4", "lsjj", "state3", "state4")
+    # the coupling symbols first, in the order of the first release; a new kind goes after them
+    assert KIND_KEYS[:5] == ("cg", "3j", "6j", "w", "9j") and len(set(KIND_KEYS)) == len(KIND_KEYS)
+    assert {"recouple3", "recouple4", "lsjj", "state3", "state4"} <= set(KIND_KEYS)
     assert [kind(k) for k in KIND_KEYS] == list(KINDS)
-    with pytest.raises(ValueError, match="argument kind = 'x': must be one of cg, 3j, 6j, w, 9j, recouple3, recouple4, lsjj, state3, state4"):
+    with pytest.raises(ValueError, match=f"argument kind = 'x': must be one of {', '.join(KIND_KEYS)}"):
         kind("x")
+
+
+def test_every_kind_states_its_phase_convention_or_has_none():
+    # CG and everything built of CG coefficients: Condon-Shortley (Condon and Shortley 1935);
+    # 6j and 9j have no phase choice of their own (Edmonds 1957, ch. 6)
+    for k in KINDS:
+        if k.key in ("6j", "9j"):
+            assert k.convention.startswith("no phase choice")
+        elif k.key == "w":
+            assert "(-1)^(a+b+c+d)" in k.convention  # Racah 1942
+        else:
+            assert "Condon-Shortley" in k.convention, k.key
 
 
 def test_zero_rule_agrees_with_the_value_over_small_ranges():

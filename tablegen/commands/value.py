@@ -17,7 +17,7 @@ from . import JSON_FORMAT, emit, warn
 __all__ = ["DESCRIPTION", "add_arguments", "run", "lookup", "text_lines", "json_line", "kind_of"]
 
 DESCRIPTION = (
-    "Print one value exactly and as a decimal (Condon-Shortley phase). KIND is one of {kinds}; "
+    "Print one value exactly and as a decimal (Clebsch-Gordan coefficients in the Condon-Shortley phase). KIND is one of {kinds}; "
     "the arguments follow the order of the symbol: {orders}. Quantum numbers are written with the "
     "ASCII digits 0-9 as 3/2, 1.5, -1/2 or 2 (no other digits, no '_', at most 40 characters). "
     "Each kind has a limit on j that keeps one value within about a second ({limits}); "
@@ -109,7 +109,7 @@ def lookup(k, texts, digits: int, max_j: int | None = None, latex: bool = False)
         "decimal": value.decimal(digits),
         "digits": digits,
         "zero_rule": None if rule is None else str(rule),
-        "convention": "Condon-Shortley",
+        "convention": k.convention or None,
         "version": __version__,
         "_t": t,
     }

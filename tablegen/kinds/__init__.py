@@ -116,6 +116,8 @@ class Kind(_Record):
     selection: the selection rules as argument positions (see Selection).
     max_j: the one-value limit: the default largest j of a lookup, chosen so that
         every value within it returns in about a second (``--max-j`` raises it).
+    convention: its phase convention in one line (``value --json`` says it); empty where the
+        kind has none to choose.
     cost_power, seconds_at_max_j: the time of one value grows about like
         seconds_at_max_j * (j / max_j) ** cost_power (measured on the worst
         arguments, all j equal); the size guard and the --max-j warning use it.
@@ -123,10 +125,11 @@ class Kind(_Record):
 
     __slots__ = (
         "key", "title", "arguments", "j_positions", "parse", "doubled", "zero_rule", "notation",
-        "members", "selection", "max_j", "cost_power", "seconds_at_max_j",
+        "members", "selection", "max_j", "cost_power", "seconds_at_max_j", "convention",
     )
     _fields = __slots__
-    _defaults = {"members": None, "selection": Selection(), "max_j": 2000, "cost_power": 2, "seconds_at_max_j": 1.0}
+    _defaults = {"members": None, "selection": Selection(), "max_j": 2000, "cost_power": 2, "seconds_at_max_j": 1.0,
+                 "convention": ""}
 
     @property
     def triads(self) -> tuple:

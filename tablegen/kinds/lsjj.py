@@ -83,6 +83,7 @@ def _zero_rule(t: tuple[int, ...]) -> "ZeroRule | None":
 
 LSJJ = Kind(
     key="lsjj",
+    convention="Condon-Shortley phase; each particle coupled in the order (l s)j",
     max_j=200,  # a 9j underneath: the 9j limit
     cost_power=3,
     seconds_at_max_j=0.5,

@@ -162,6 +162,7 @@ def _parse_ninej(values, max_j=None) -> tuple[int, ...]:
 
 NINEJ = Kind(
     key="9j",
+    convention="no phase choice of its own: the recoupling of Condon-Shortley coupled states fixes it, sign included",
     title="Wigner 9j symbol",
     arguments=_NAMES,
     j_positions=tuple(range(9)),

@@ -90,6 +90,7 @@ def _zero4(t):
 
 RECOUPLE3 = Kind(
     key="recouple3",
+    convention="Condon-Shortley phase along both coupling trees",
     max_j=5000,  # all j = 5000: ~0.5 s (measured); time grows about like j**2
     cost_power=2,
     seconds_at_max_j=0.5,
@@ -105,6 +106,7 @@ RECOUPLE3 = Kind(
 
 RECOUPLE4 = Kind(
     key="recouple4",
+    convention="Condon-Shortley phase along both coupling trees",
     max_j=200,  # all j = 200: ~0.8 s (measured, a 9j underneath); time grows about like j**3
     cost_power=3,
     seconds_at_max_j=0.8,

@@ -174,6 +174,7 @@ _LIMITS = {"max_j": 5000, "cost_power": 2, "seconds_at_max_j": 0.8}
 
 SIXJ = Kind(
     key="6j",
+    convention="no phase choice of its own: the recoupling of Condon-Shortley coupled states fixes it, sign included",
     title="Wigner 6j symbol",
     arguments=_SIXJ_NAMES,
     j_positions=(0, 1, 2, 3, 4, 5),
@@ -187,6 +188,7 @@ SIXJ = Kind(
 )
 RACAH_W = Kind(
     key="w",
+    convention="Racah's W(a b c d; e f) = (-1)^(a+b+c+d) {a b e; d c f}",
     title="Racah W coefficient",
     arguments=_W_NAMES,
     j_positions=(0, 1, 2, 3, 4, 5),

@@ -152,6 +152,7 @@ def state_kind(key: str, tree: StateTree, doubled, title: str, max_j: int, secon
         max_j=max_j,
         cost_power=2,
         seconds_at_max_j=seconds_at_max_j,
+        convention="Condon-Shortley phase at every node of the tree, the left branch coupled first",
         title=title,
         arguments=names,
         j_positions=tuple(range(nj)),

@@ -212,6 +212,7 @@ _LIMITS = {"max_j": 5000, "cost_power": 2, "seconds_at_max_j": 0.5}
 
 CG = Kind(
     key="cg",
+    convention="Condon-Shortley phase",
     title="Clebsch–Gordan coefficient",
     arguments=_CG_NAMES,
     j_positions=(0, 2, 4),
@@ -224,6 +225,7 @@ CG = Kind(
 )
 THREEJ = Kind(
     key="3j",
+    convention="Condon-Shortley phase",
     title="Wigner 3j symbol",
     arguments=_THREEJ_NAMES,
     j_positions=(0, 1, 2),
