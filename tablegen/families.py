@@ -138,6 +138,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         convention="⟨(j1 j2)j12, j3; J | j1, (j2 j3)j23; J⟩ = (−1)^(j1+j2+j3+J) √((2j12+1)(2j23+1)) "
         "{j1 j2 j12; j3 J j23}, Condon–Shortley phase; rows j12 (coupled first), columns j23. "
         "Real and orthogonal: the inverse matrix is the transpose.",
+        convention_text="recoupling",
     ),
     Family(
         key="recouple4",
@@ -150,6 +151,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         convention="⟨(j1 j2)j12, (j3 j4)j34; J | (j1 j3)j13, (j2 j4)j24; J⟩ = "
         "√((2j12+1)(2j34+1)(2j13+1)(2j24+1)) {j1 j2 j12; j3 j4 j34; j13 j24 J}, Condon–Shortley phase; "
         "rows (j12, j34), columns (j13, j24). Real and orthogonal: the inverse matrix is the transpose.",
+        convention_text="recoupling",
     ),
     Family(
         key="lsjj",
@@ -164,6 +166,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         "(shells = 1: p², d² …): only the Pauli-allowed terms (L + S even) and pairs (j1 ≤ j2, J even when "
         "j1 = j2); the jj state for j1 < j2 is the antisymmetric normalised [|j1 j2; J⟩ − (−1)^(j1+j2−J) "
         "|j2 j1; J⟩]/√2, so its row is √2 times the 9j expression.",
+        convention_text="recoupling",
     ),
     Family(
         key="state3",
@@ -178,6 +181,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         "⟨j1 m1; j2 m2 | j12 m1+m2⟩ ⟨j12 m1+m2; j3 m3 | J M⟩. Coupled states are written |(j1 j2)j12, j3; J, M⟩, "
         "product states |j1, m1⟩|j2, m2⟩|j3, m3⟩. Rows: coupled states in product states; columns: product "
         "states in coupled states (the matrix is real and orthogonal, its inverse the transpose).",
+        convention_text="recoupling",
     ),
     Family(
         key="state4",
@@ -195,6 +199,7 @@ RECOUPLING_FAMILIES: tuple[Family, ...] = (
         "written |(j1 j2)j12, (j3 j4)j34; J, M⟩, product states |j1, m1⟩|j2, m2⟩|j3, m3⟩|j4, m4⟩. Rows: coupled "
         "states in product states; columns: product states in coupled states (the matrix is real and "
         "orthogonal, its inverse the transpose).",
+        convention_text="recoupling",
     ),
 )
 # -- end of the recoupling families ---------------------------------------------------------------------------
